@@ -1,0 +1,13 @@
+import { defineConfig } from 'vite';
+import preact from '@preact/preset-vite';
+
+export default defineConfig({
+  plugins: [preact()],
+  build: {
+    target: 'es2022',
+    sourcemap: true,
+  },
+  preview: {
+    host: '127.0.0.1',
+  },
+});
