@@ -231,7 +231,7 @@ const ratedWatts = numberIn(0, 100_000, { minExclusive: true });
 const lumens = numberIn(0, 1e7);
 const cctKelvin = numberIn(1000, 10_000);
 const cri = numberIn(0, 100);
-const powerFactor = numberIn(0.05, 1);
+const powerFactor = numberIn(0.1, 1);
 const lifeHours = numberIn(1, 1_000_000);
 const hoursPerYear = numberIn(0, 8760);
 const cost = numberIn(0, Infinity);
@@ -333,7 +333,7 @@ export const gridFactorChoiceSchema = kindOf(['egrid', 'uk', 'custom'], 'a grid 
   record({ kind: v.literal('egrid'), subregion: nonEmptyText }, 'an eGRID grid factor'),
   record({ kind: v.literal('uk'), year: numberIn(2000, 2100, { integer: true }) }, 'a UK grid factor'),
   record(
-    { kind: v.literal('custom'), kgCo2PerKwh: numberIn(0, 3), label: text },
+    { kind: v.literal('custom'), kgCo2PerKwh: numberIn(0, 2.5), label: text },
     'a custom grid factor',
   ),
 ]);

@@ -286,7 +286,7 @@ describe('a valid file', () => {
   it('accepts the edges of each range', () => {
     const tree = fileTree();
     at(tree, 'surveys', 0, 'rooms', 1, 'hours').hoursPerYear = 8760;
-    Object.assign(at(tree, ...entry0, 'existing'), { lampsPerFixture: 24, powerFactor: 0.05, cri: 100, cctKelvin: 10_000 });
+    Object.assign(at(tree, ...entry0, 'existing'), { lampsPerFixture: 24, powerFactor: 0.1, cri: 100, cctKelvin: 10_000 });
     at(tree, ...entry0).count = 0;
     at(tree, 'surveys', 0, 'money').analysisYears = 40;
     at(tree, 'surveys', 0, 'grid').year = 2100;
