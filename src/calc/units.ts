@@ -4,6 +4,7 @@
  * entry. The foot is defined exactly as 0.3048 m (international yard and
  * pound agreement, 1959), so every factor below is exact or derived from it.
  */
+import type { UnitsSystem } from '../survey/model.ts';
 import { CalcInputError } from './errors.ts';
 
 /** Metres in one foot (exact). */
@@ -62,6 +63,55 @@ export function wattsPerSquareMetreToWattsPerSquareFoot(wattsPerSquareMetre: num
 /** @example poundsToKilograms(1000) //=> 453.59237 */
 export function poundsToKilograms(pounds: number): number {
   return pounds * kilogramsPerPound;
+}
+
+/** A physical quantity the screens and reports show in the survey's units system. */
+export type DisplayQuantity = 'length' | 'area' | 'illuminance' | 'powerDensity';
+
+/** Unit symbols per quantity and system. */
+export const displayUnits: Readonly<Record<DisplayQuantity, Readonly<Record<UnitsSystem, string>>>> = {
+  length: { si: 'm', imperial: 'ft' },
+  area: { si: 'm²', imperial: 'ft²' },
+  illuminance: { si: 'lx', imperial: 'fc' },
+  powerDensity: { si: 'W/m²', imperial: 'W/ft²' },
+};
+
+/**
+ * Converts an SI value (m, m², lux, W/m²) to the survey's display system.
+ *
+ * @example toDisplay('area', 92.90304, 'imperial') //=> 1000
+ */
+export function toDisplay(quantity: DisplayQuantity, siValue: number, units: UnitsSystem): number {
+  if (units === 'si') return siValue;
+  switch (quantity) {
+    case 'length':
+      return metresToFeet(siValue);
+    case 'area':
+      return squareMetresToSquareFeet(siValue);
+    case 'illuminance':
+      return luxToFootcandles(siValue);
+    case 'powerDensity':
+      return wattsPerSquareMetreToWattsPerSquareFoot(siValue);
+  }
+}
+
+/**
+ * Converts a value typed in the survey's display system back to SI for storage.
+ *
+ * @example fromDisplay('length', 10, 'imperial') //=> 3.048
+ */
+export function fromDisplay(quantity: DisplayQuantity, displayValue: number, units: UnitsSystem): number {
+  if (units === 'si') return displayValue;
+  switch (quantity) {
+    case 'length':
+      return feetToMetres(displayValue);
+    case 'area':
+      return squareFeetToSquareMetres(displayValue);
+    case 'illuminance':
+      return footcandlesToLux(displayValue);
+    case 'powerDensity':
+      return wattsPerSquareFootToWattsPerSquareMetre(displayValue);
+  }
 }
 
 /**

@@ -5,6 +5,9 @@ import {
   feetToMetres,
   footcandlesToLux,
   formatMoney,
+  fromDisplay,
+  toDisplay,
+  type DisplayQuantity,
   isKnownCurrency,
   luxToFootcandles,
   metresToFeet,
@@ -105,5 +108,26 @@ describe('money formatting through Intl', () => {
     expect(isKnownCurrency('usd')).toBe(false);
     expect(isKnownCurrency('XQZ')).toBe(false);
     expect(() => formatMoney(1, 'DOLLARS', 'en-US')).toThrow(/currency/);
+  });
+});
+
+describe('display in the survey units system', () => {
+  it('shows imperial values and takes them back to SI exactly', () => {
+    // exact foot (1959 agreement): 10 ft = 3.048 m; 1,000 ft² = 92.90304 m²; 50 fc = 538.196 lx
+    expect(fromDisplay('length', 10, 'imperial')).toBeCloseTo(3.048, 12);
+    expect(toDisplay('area', 92.90304, 'imperial')).toBeCloseTo(1000, 9);
+    expect(fromDisplay('illuminance', 50, 'imperial')).toBeCloseTo(538.1955, 3);
+    // ASHRAE/IES 90.1-2019 Table 9.6.1: corridor 0.41 W/ft² shown from its SI value
+    expect(toDisplay('powerDensity', wattsPerSquareFootToWattsPerSquareMetre(0.41), 'imperial')).toBeCloseTo(0.41, 12);
+  });
+
+  it('passes SI values through and round-trips every quantity', () => {
+    const quantities: DisplayQuantity[] = ['length', 'area', 'illuminance', 'powerDensity'];
+    fc.assert(
+      fc.property(fc.constantFrom(...quantities), fc.double({ min: 0, max: 1e6, noNaN: true }), (q, x) => {
+        expect(toDisplay(q, x, 'si')).toBe(x);
+        close(fromDisplay(q, toDisplay(q, x, 'imperial'), 'imperial'), x, 1e-12);
+      }),
+    );
   });
 });
