@@ -433,17 +433,46 @@ function roomContext(room: Room): RoomContext {
   return { room, hoursPerYear: annualHours(room.hours), occupancyFraction: facts.occupancySensorSavingsFraction };
 }
 
-function sumLoads(entries: readonly EntryResult[], which: 'existing' | 'proposed'): LoadTotals {
+function sumLoads(items: readonly Record<'existing' | 'proposed', LoadTotals>[], which: 'existing' | 'proposed'): LoadTotals {
   let watts = 0;
   let kwh = 0;
   let va = 0;
-  for (const r of entries) {
-    const s = r[which];
+  for (const item of items) {
+    const s = item[which];
     watts += s.watts;
     kwh += s.kwhPerYear;
     va += s.voltAmperes;
   }
   return { watts, kwhPerYear: kwh, voltAmperes: va };
+}
+
+/** Savings, CO2, fixtures and warning counts summed over entries (into a room) or rooms (into the survey). */
+function sumOutcomes(
+  items: readonly { savings: EnergySavings; co2KgPerYear: number }[],
+  fixturesOf: (index: number) => number,
+): { savings: EnergySavings; co2KgPerYear: number; fixtures: number } {
+  let lightingKwh = 0;
+  let kwh = 0;
+  let connectedKw = 0;
+  let peakKw = 0;
+  let gas = 0;
+  let co2 = 0;
+  let fixtures = 0;
+  for (let i = 0; i < items.length; i++) {
+    const { savings, co2KgPerYear } = items[i]!;
+    lightingKwh += savings.lightingKwhPerYear;
+    kwh += savings.kwhPerYear;
+    connectedKw += savings.connectedKw;
+    peakKw += savings.peakKw;
+    gas += savings.gasThermsPerYear;
+    co2 += co2KgPerYear;
+    fixtures += fixturesOf(i);
+  }
+  return {
+    savings: { lightingKwhPerYear: lightingKwh, kwhPerYear: kwh, connectedKw, peakKw, gasThermsPerYear: gas },
+    co2KgPerYear: co2,
+    fixtures,
+  };
 }
 
 function sumMoney(items: readonly { money: MoneyFigures }[]): MoneyFigures {
@@ -554,25 +583,9 @@ function calculateRoom(survey: Survey, factors: SurveyFactors, room: Room, entry
     allowanceWattsPerSquareMetre: allowance,
     hasProposal,
   });
-  let lightingKwh = 0;
-  let kwh = 0;
-  let connectedKw = 0;
-  let peakKw = 0;
-  let gas = 0;
-  let co2 = 0;
-  let fixtures = 0;
+  const { savings, co2KgPerYear: co2, fixtures } = sumOutcomes(entries, (i) => entries[i]!.count);
   const counts = countBySeverity(warnings);
-  for (const r of entries) {
-    lightingKwh += r.savings.lightingKwhPerYear;
-    kwh += r.savings.kwhPerYear;
-    connectedKw += r.savings.connectedKw;
-    peakKw += r.savings.peakKw;
-    gas += r.savings.gasThermsPerYear;
-    co2 += r.co2KgPerYear;
-    fixtures += r.count;
-    countBySeverity(r.warnings, counts);
-  }
-  const savings: EnergySavings = { lightingKwhPerYear: lightingKwh, kwhPerYear: kwh, connectedKw, peakKw, gasThermsPerYear: gas };
+  for (const r of entries) countBySeverity(r.warnings, counts);
   return {
     roomId: room.id,
     name: room.name,
@@ -710,35 +723,12 @@ function collectWarnings(rooms: readonly RoomResult[], circuitList: readonly War
 }
 
 function assemble(survey: Survey, factors: SurveyFactors, rooms: RoomResult[], circuits: SurveyResult['circuits']): SurveyResult {
-  let ew = 0;
-  let ekwh = 0;
-  let eva = 0;
-  let pw = 0;
-  let pkwh = 0;
-  let pva = 0;
-  let lightingKwh = 0;
-  let kwh = 0;
-  let connectedKw = 0;
-  let peakKw = 0;
-  let gas = 0;
-  let co2 = 0;
-  let fixtures = 0;
+  const existing = sumLoads(rooms, 'existing');
+  const proposed = sumLoads(rooms, 'proposed');
+  const { savings, co2KgPerYear: co2, fixtures } = sumOutcomes(rooms, (i) => rooms[i]!.fixtures);
   let entryCount = 0;
   const counts: Record<Severity, number> = { danger: 0, caution: 0, advice: 0 };
   for (const r of rooms) {
-    ew += r.existing.watts;
-    ekwh += r.existing.kwhPerYear;
-    eva += r.existing.voltAmperes;
-    pw += r.proposed.watts;
-    pkwh += r.proposed.kwhPerYear;
-    pva += r.proposed.voltAmperes;
-    lightingKwh += r.savings.lightingKwhPerYear;
-    kwh += r.savings.kwhPerYear;
-    connectedKw += r.savings.connectedKw;
-    peakKw += r.savings.peakKw;
-    gas += r.savings.gasThermsPerYear;
-    co2 += r.co2KgPerYear;
-    fixtures += r.fixtures;
     entryCount += r.entries.length;
     counts.danger += r.warningCounts.danger;
     counts.caution += r.warningCounts.caution;
@@ -764,9 +754,9 @@ function assemble(survey: Survey, factors: SurveyFactors, rooms: RoomResult[], c
     units: survey.units,
     factors,
     totals: {
-      existing: { watts: ew, kwhPerYear: ekwh, voltAmperes: eva, kva: kvaTotal(eva) },
-      proposed: { watts: pw, kwhPerYear: pkwh, voltAmperes: pva, kva: kvaTotal(pva) },
-      savings: { lightingKwhPerYear: lightingKwh, kwhPerYear: kwh, connectedKw, peakKw, gasThermsPerYear: gas },
+      existing: { ...existing, kva: kvaTotal(existing.voltAmperes) },
+      proposed: { ...proposed, kva: kvaTotal(proposed.voltAmperes) },
+      savings,
       money,
       co2KgPerYear: co2,
       fixtures,
