@@ -8,7 +8,7 @@
  * input is estimated from the lamp watts with a ballast multiplier derived
  * from those same tables, and the result says it was estimated.
  */
-import type { BallastKind, ExistingEquipment, ExistingTechnology } from '../survey/model.ts';
+import type { BallastKind, Distribution, ExistingEquipment, ExistingTechnology } from '../survey/model.ts';
 import { checkInteger, checkRange } from './errors.ts';
 
 /** A common piece of existing equipment with its typical fixture input watts. */
@@ -254,4 +254,25 @@ export const typicalLuminaireEfficiency: Readonly<Record<ExistingTechnology, num
   'mercury-vapour': 0.75,
   led: 0.85,
   other: 0.7,
+};
+
+/**
+ * The light distribution assumed for an existing fixture, by technology —
+ * common practice, no published source: linear fluorescent in troffers and
+ * wraps (direct-wide), HID high-bays and pin-base CFL downlights
+ * (direct-narrow), screw-base lamps in shades and globes (diffuse).
+ */
+export const typicalExistingDistribution: Readonly<Record<ExistingTechnology, Distribution>> = {
+  incandescent: 'diffuse',
+  halogen: 'diffuse',
+  'cfl-screw': 'diffuse',
+  'cfl-pin': 'direct-narrow',
+  'linear-t12': 'direct-wide',
+  'linear-t8': 'direct-wide',
+  'linear-t5': 'direct-wide',
+  'metal-halide': 'direct-narrow',
+  'high-pressure-sodium': 'direct-narrow',
+  'mercury-vapour': 'direct-narrow',
+  led: 'direct-wide',
+  other: 'direct-wide',
 };

@@ -189,6 +189,20 @@ export const coefficientOfUtilisationTable: Readonly<Record<Distribution, CuRow>
   indirect: [0.66, 0.56, 0.48, 0.42, 0.36, 0.32, 0.28, 0.25, 0.22, 0.19, 0.17],
 } satisfies Record<Distribution, CuRow>);
 
+/**
+ * Efficiency of the typical luminaire each CU row assumes: direct-narrow 0.8
+ * and direct-wide 0.7 as stated above; semi-direct 0.75, diffuse 0.75 and
+ * indirect 0.7 from memory (typical of those housings). Used to turn a
+ * lamp-lumen CU into one for lumens leaving the luminaire.
+ */
+export const cuTableLuminaireEfficiency: Readonly<Record<Distribution, number>> = Object.freeze({
+  'direct-narrow': 0.8,
+  'direct-wide': 0.7,
+  'semi-direct': 0.75,
+  diffuse: 0.75,
+  indirect: 0.7,
+} satisfies Record<Distribution, number>);
+
 function cuAt(row: CuRow, index: number): number {
   const value = row[index];
   if (value === undefined) throw new Error(`CU table has no entry at RCR ${index}`);
@@ -327,4 +341,18 @@ export function lightingPowerDensityWattsPerSquareMetre(watts: number, floorSqua
   checkRange('watts', watts, 0, maxWatts);
   checkPositive('floorSquareMetres', floorSquareMetres, maxSquareMetres);
   return watts / floorSquareMetres;
+}
+
+/**
+ * Coefficient of utilisation for lumens that leave the luminaire (absolute
+ * photometry, as LED luminaires are rated): the table CU, which is relative to
+ * lamp lumens in a typical housing, divided by that housing's efficiency
+ * ({@link cuTableLuminaireEfficiency}). Multiplying a fluorescent fixture's
+ * lamp lumens × housing efficiency by this CU gives back the classic
+ * lamp-lumen result.
+ *
+ * @example coefficientOfUtilisationForLuminaireLumens('direct-wide', 0) //=> 1.1857… (0.83 / 0.7)
+ */
+export function coefficientOfUtilisationForLuminaireLumens(distribution: Distribution, rcr: number): number {
+  return coefficientOfUtilisation(distribution, rcr) / cuTableLuminaireEfficiency[distribution];
 }

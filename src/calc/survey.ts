@@ -37,13 +37,14 @@ import {
   hasMercury,
   lastPcbBallastYear,
   typicalLampLifeHours,
+  typicalExistingDistribution,
   typicalLuminaireEfficiency,
   type WattsBasis,
 } from './equipment.ts';
 import { CalcInputError, checkInteger, checkRange } from './errors.ts';
 import {
   ballastFactorDefault,
-  coefficientOfUtilisation,
+  coefficientOfUtilisationForLuminaireLumens,
   defaultLumenBand,
   incandescentEquivalentLumens,
   judgeLumens,
@@ -124,7 +125,7 @@ export interface Adequacy {
   floorSquareMetres: number;
   floorSquareFeet: number;
   roomCavityRatio: number;
-  /** Coefficient of utilisation used for the proposal (room override or table). */
+  /** Coefficient of utilisation for lumens leaving the fixtures, lumen-weighted over the proposal (room override or table). */
   coefficientOfUtilisation: number;
   cuSource: 'room override' | 'table';
   targetLux: number;
@@ -512,18 +513,27 @@ function sumMoney(items: readonly { money: MoneyFigures }[]): MoneyFigures {
   };
 }
 
+/**
+ * Maintained average illuminance by the lumen method, summing each entry's
+ * fixtures: lumens leaving the fixture × CU for luminaire lumens (by the
+ * entry's distribution, or the room's CU override) × LLD × LDD × RSDD over the
+ * floor area. Null when any fixture's lumens are unknown.
+ */
 function illuminance(
   room: Room,
   entries: readonly FixtureEntry[],
   results: readonly EntryResult[],
   which: 'existing' | 'proposed',
-  cu: number,
+  rcr: number,
   floorSquareMetres: number,
-): number | null {
+): { lux: number; meanCu: number } | null {
   const ph = room.photometry;
   const ldd = ph.luminaireDirtDepreciation ?? defaultDirtDepreciation.luminaire;
   const rsdd = ph.roomSurfaceDirtDepreciation ?? defaultDirtDepreciation.roomSurface;
-  let lumens = 0;
+  const cuOverride = ph.coefficientOfUtilisation;
+  let utilised = 0;
+  let emitted = 0;
+  let cuWeighted = 0;
   for (let i = 0; i < results.length; i++) {
     const r = results[i]!;
     const entry = entries[i]!;
@@ -531,6 +541,8 @@ function illuminance(
     if (r.count === 0) continue;
     if (s.lumensPerFixture === null) return null;
     const isNew = which === 'proposed' && entry.proposed !== null;
+    const distribution = isNew ? entry.proposed!.distribution : typicalExistingDistribution[entry.existing.technology];
+    const cu = cuOverride ?? coefficientOfUtilisationForLuminaireLumens(distribution, rcr);
     let llf: number;
     if (ph.lightLossFactor !== undefined) {
       // The user's total LLF includes the ballast factor, which lumensPerFixture already carries.
@@ -539,9 +551,12 @@ function illuminance(
     } else {
       llf = lampLumenDepreciationDefault(isNew ? 'led' : entry.existing.technology) * ldd * rsdd;
     }
-    lumens += r.count * s.lumensPerFixture * llf;
+    const lumens = r.count * s.lumensPerFixture;
+    emitted += lumens;
+    cuWeighted += lumens * cu;
+    utilised += lumens * cu * llf;
   }
-  return maintainedIlluminanceLux(lumens, cu, 1, floorSquareMetres);
+  return { lux: maintainedIlluminanceLux(utilised, 1, 1, floorSquareMetres), meanCu: emitted > 0 ? cuWeighted / emitted : 0 };
 }
 
 function calculateRoom(survey: Survey, factors: SurveyFactors, room: Room, entryResults?: EntryResult[]): RoomResult {
@@ -552,14 +567,15 @@ function calculateRoom(survey: Survey, factors: SurveyFactors, room: Room, entry
   const workPlane = checkRange('workPlaneHeightMetres', room.workPlaneHeightMetres, 0, 100);
   const cavity = Math.max(ceiling - workPlane, 0.01);
   const rcr = roomCavityRatio(floor.lengthMetres, floor.widthMetres, cavity);
-  const firstProposal = room.entries.find((e) => e.proposed !== null)?.proposed;
-  const distribution = firstProposal?.distribution ?? 'direct-wide';
   const override = room.photometry.coefficientOfUtilisation;
-  const cu = override !== undefined ? checkRange('photometry.coefficientOfUtilisation', override, 0.01, 1.5) : coefficientOfUtilisation(distribution, rcr);
+  if (override !== undefined) checkRange('photometry.coefficientOfUtilisation', override, 0.01, 1.5);
+  if (room.photometry.lightLossFactor !== undefined) checkRange('photometry.lightLossFactor', room.photometry.lightLossFactor, 0.01, 1.5);
   const existingLoads = sumLoads(entries, 'existing');
   const proposedLoads = sumLoads(entries, 'proposed');
-  const existingLux = illuminance(room, room.entries, entries, 'existing', cu, floor.squareMetres);
-  const proposedLux = illuminance(room, room.entries, entries, 'proposed', cu, floor.squareMetres);
+  const existingLight = illuminance(room, room.entries, entries, 'existing', rcr, floor.squareMetres);
+  const proposedLight = illuminance(room, room.entries, entries, 'proposed', rcr, floor.squareMetres);
+  const existingLux = existingLight?.lux ?? null;
+  const proposedLux = proposedLight?.lux ?? null;
   const target = targetLux(room.spaceType);
   const allowance = lpdAllowanceWattsPerSquareMetre(room.spaceType);
   const existingLpd = lightingPowerDensityWattsPerSquareMetre(existingLoads.watts, floor.squareMetres);
@@ -568,7 +584,7 @@ function calculateRoom(survey: Survey, factors: SurveyFactors, room: Room, entry
     `Lumen method with fixtures at the ceiling: cavity ${cavity.toFixed(2)} m from work plane to ceiling.`,
     override !== undefined
       ? 'Coefficient of utilisation entered for this room.'
-      : `Coefficient of utilisation from the table for a ${distribution} distribution at 80/50/20 % reflectances.`,
+      : "Coefficients of utilisation from the table for each fixture's distribution at 80/50/20 % reflectances, taken to the lumens leaving the fixture (an estimate; the product's own photometry is better).",
   ];
   if (floor.assumedSquare) notes.push('Only the floor area is known: the room is taken as square for the cavity ratio.');
   if (existingLux === null) notes.push('Existing illuminance not estimated: lumens are unknown for some existing fixtures.');
@@ -603,7 +619,7 @@ function calculateRoom(survey: Survey, factors: SurveyFactors, room: Room, entry
       floorSquareMetres: floor.squareMetres,
       floorSquareFeet: squareMetresToSquareFeet(floor.squareMetres),
       roomCavityRatio: rcr,
-      coefficientOfUtilisation: cu,
+      coefficientOfUtilisation: proposedLight?.meanCu ?? existingLight?.meanCu ?? 0,
       cuSource: override !== undefined ? 'room override' : 'table',
       targetLux: target,
       targetFootcandles: luxToFootcandles(target),

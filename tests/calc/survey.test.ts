@@ -206,3 +206,52 @@ describe('properties over random surveys', () => {
     );
   });
 });
+
+describe('room illuminance by the lumen method', () => {
+  function officeWith(entry: Partial<FixtureEntry>, photometry: Survey['rooms'][number]['photometry'] = {}): Survey {
+    const s = demoSurvey();
+    const base = s.rooms[0]!.entries[0]!;
+    s.rooms = [
+      {
+        ...s.rooms[0]!,
+        spaceType: 'office-open',
+        floor: { kind: 'rectangle', lengthMetres: 10, widthMetres: 8 },
+        ceilingHeightMetres: 2.76,
+        workPlaneHeightMetres: 0.76,
+        photometry,
+        entries: [{ ...base, count: 12, ...entry }],
+      },
+    ];
+    return s;
+  }
+
+  it('reproduces the classic lamp-lumen method for an existing fluorescent troffer', () => {
+    const s = officeWith({ proposed: null });
+    const e = s.rooms[0]!.entries[0]!;
+    delete e.existing.meteredWattsPerFixture;
+    const room = calculateSurvey(s).rooms[0]!;
+    // IES zonal cavity method: RCR = 5 × 2.0 × (10 + 8) / 80 = 2.25
+    expect(room.adequacy.roomCavityRatio).toBeCloseTo(2.25, 12);
+    // E = N × lamps × lamp lumens × BF × CU(direct-wide, RCR 2.25) × LLD × LDD × RSDD / A
+    const cu = 0.69 + (0.63 - 0.69) * 0.25; // table row direct-wide, RCR 2 → 3 (from memory, lighting.ts)
+    const expected = (12 * 4 * 2800 * 0.88 * cu * 0.93 * 0.9 * 0.95) / 80; // BF 0.88, LLD T8 0.93, LDD 0.9, RSDD 0.95 (lighting.ts defaults)
+    expect(room.adequacy.existingLux).toBeCloseTo(expected, 6);
+  });
+
+  it('takes an LED luminaire at its delivered lumens with the CU scaled to luminaire lumens', () => {
+    const s = officeWith({});
+    const room = calculateSurvey(s).rooms[0]!;
+    const kit = s.rooms[0]!.entries[0]!.proposed!;
+    const cu = (0.69 + (0.63 - 0.69) * 0.25) / 0.7; // direct-wide table CU ÷ the 0.7 efficiency its row assumes
+    const expected = (12 * kit.lumensPerUnit * cu * 0.85 * 0.9 * 0.95) / 80; // LLD LED 0.85 (from memory, lighting.ts)
+    expect(room.adequacy.proposedLux).toBeCloseTo(expected, 6);
+  });
+
+  it('uses the room CU and LLF overrides when given', () => {
+    const s = officeWith({}, { coefficientOfUtilisation: 0.6, lightLossFactor: 0.8 });
+    const room = calculateSurvey(s).rooms[0]!;
+    const kit = s.rooms[0]!.entries[0]!.proposed!;
+    expect(room.adequacy.proposedLux).toBeCloseTo((12 * kit.lumensPerUnit * 0.6 * 0.8) / 80, 9);
+    expect(room.adequacy.coefficientOfUtilisation).toBe(0.6);
+  });
+});
