@@ -57,6 +57,8 @@ import {
 } from './lighting.ts';
 import { lpdAllowanceWattsPerSquareMetre, spaceFacts, targetLux } from './spaces.ts';
 import {
+  displayUnits,
+  toDisplay,
   luxToFootcandles,
   squareMetresToSquareFeet,
   wattsPerSquareMetreToWattsPerSquareFoot,
@@ -581,7 +583,7 @@ function calculateRoom(survey: Survey, factors: SurveyFactors, room: Room, entry
   const existingLpd = lightingPowerDensityWattsPerSquareMetre(existingLoads.watts, floor.squareMetres);
   const proposedLpd = lightingPowerDensityWattsPerSquareMetre(proposedLoads.watts, floor.squareMetres);
   const notes: string[] = [
-    `Lumen method with fixtures at the ceiling: cavity ${cavity.toFixed(2)} m from work plane to ceiling.`,
+    `Lumen method with fixtures at the ceiling: cavity ${toDisplay('length', cavity, survey.units).toFixed(2)} ${displayUnits.length[survey.units]} from work plane to ceiling.`,
     override !== undefined
       ? 'Coefficient of utilisation entered for this room.'
       : "Coefficients of utilisation from the table for each fixture's distribution at 80/50/20 % reflectances, taken to the lumens leaving the fixture (an estimate; the product's own photometry is better).",
@@ -598,7 +600,7 @@ function calculateRoom(survey: Survey, factors: SurveyFactors, room: Room, entry
     proposedWattsPerSquareMetre: proposedLpd,
     allowanceWattsPerSquareMetre: allowance,
     hasProposal,
-  });
+  }, survey.units);
   const { savings, co2KgPerYear: co2, fixtures } = sumOutcomes(entries, (i) => entries[i]!.count);
   const counts = countBySeverity(warnings);
   for (const r of entries) countBySeverity(r.warnings, counts);

@@ -13,7 +13,8 @@
  * Every warning about wiring, heat or life safety ends with
  * {@link safetyDeferral}.
  */
-import type { FixtureEntry, Room } from '../survey/model.ts';
+import type { FixtureEntry, Room, UnitsSystem } from '../survey/model.ts';
+import { displayUnits, toDisplay } from './units.ts';
 
 export type Severity = 'danger' | 'caution' | 'advice';
 
@@ -420,10 +421,15 @@ export interface RoomFacts {
  * The warnings for a room as a whole: mixed colour temperature, light level
  * against the target, and power density against the code allowance.
  *
- * @example roomWarnings(room, { proposedCctsKelvin: [3000, 4000], … }).map(w => w.code) //=> ['mixed-cct']
+ * Light levels and power densities in the messages are in the survey's units system.
+ *
+ * @example roomWarnings(room, { proposedCctsKelvin: [3000, 4000], … }, 'si').map(w => w.code) //=> ['mixed-cct']
  */
-export function roomWarnings(room: Pick<Room, 'id' | 'name'>, facts: RoomFacts): Warning[] {
+export function roomWarnings(room: Pick<Room, 'id' | 'name'>, facts: RoomFacts, units: UnitsSystem = 'si'): Warning[] {
   const out: Warning[] = [];
+  const light = (lux: number) => `${Math.round(toDisplay('illuminance', lux, units))} ${displayUnits.illuminance[units]}`;
+  const density = (wattsPerSquareMetre: number) =>
+    `${toDisplay('powerDensity', wattsPerSquareMetre, units).toFixed(2)} ${displayUnits.powerDensity[units]}`;
   if (facts.proposedCctsKelvin.length > 1) {
     const min = Math.min(...facts.proposedCctsKelvin);
     const max = Math.max(...facts.proposedCctsKelvin);
@@ -449,7 +455,7 @@ export function roomWarnings(room: Pick<Room, 'id' | 'name'>, facts: RoomFacts):
           'caution',
           false,
           'Room below its recommended light level',
-          `Estimated ${Math.round(facts.proposedLux)} lux maintained against a target of ${Math.round(facts.targetLux)} lux (${pct(ratio)}).`,
+          `Estimated ${light(facts.proposedLux)} maintained against a target of ${light(facts.targetLux)} (${pct(ratio)}).`,
           'Add fixtures or choose brighter products; confirm with a photometric calculation for the final design.',
         ),
       );
@@ -460,7 +466,7 @@ export function roomWarnings(room: Pick<Room, 'id' | 'name'>, facts: RoomFacts):
           'advice',
           false,
           'Room well above its recommended light level',
-          `Estimated ${Math.round(facts.proposedLux)} lux maintained against a target of ${Math.round(facts.targetLux)} lux (${pct(ratio)}).`,
+          `Estimated ${light(facts.proposedLux)} maintained against a target of ${light(facts.targetLux)} (${pct(ratio)}).`,
           'Consider lower-output products or fewer fixtures to save more.',
         ),
       );
@@ -473,7 +479,7 @@ export function roomWarnings(room: Pick<Room, 'id' | 'name'>, facts: RoomFacts):
         'caution',
         false,
         'Power density over the code allowance',
-        `Proposed ${facts.proposedWattsPerSquareMetre.toFixed(2)} W/m² against an allowance of ${facts.allowanceWattsPerSquareMetre.toFixed(2)} W/m² (ASHRAE/IES 90.1-2019, space-by-space).`,
+        `Proposed ${density(facts.proposedWattsPerSquareMetre)} against an allowance of ${density(facts.allowanceWattsPerSquareMetre)} (ASHRAE/IES 90.1-2019, space-by-space).`,
         'Lower the connected load, or check which energy code applies to this alteration.',
       ),
     );

@@ -722,7 +722,16 @@ describe('illuminance-short and illuminance-over (0.8 and 1.5 × target; common 
   it('fires (caution) when the room falls below 0.8 × target: 800 × 0.8 / 9 m² = 71 lux against 108 lux', () => {
     const w = only(warningsOf({}, { floor: { kind: 'area', squareMetres: 9 } }), 'illuminance-short');
     expect(w.severity).toBe('caution');
-    expect(w.message).toContain('71 lux');
+    expect(w.message).toContain('71 lx');
+  });
+
+  it("states light levels and power densities in the survey's units system", () => {
+    // 1 fc = 10.764 lx (IES definition); 90.1-2019 allowances are published in W/ft²
+    const facts = roomFacts({ proposedLux: 50, proposedWattsPerSquareMetre: 20 });
+    const imperial = roomWarnings(plainRoom, facts, 'imperial');
+    expect(only(imperial, 'illuminance-short').message).toContain(`${Math.round(50 / 10.7639104)} fc`);
+    expect(only(imperial, 'lpd-over').message).toMatch(/W\/ft²/);
+    expect(only(roomWarnings(plainRoom, facts, 'si'), 'lpd-over').message).toMatch(/20\.00 W\/m²/);
   });
 
   it('fires (advice) above 1.5 × target: 800 × 0.8 / 3 m² = 213 lux against 108 lux', () => {
