@@ -9,7 +9,7 @@
  * and validated by `src/survey/validate.ts`.
  */
 import { CalcInputError } from '../calc/errors.ts';
-import type { CatalogProduct, Survey } from './model.ts';
+import type { CatalogProduct, PhotoMimeType, PhotoOwnerKind, Survey } from './model.ts';
 
 /** Value of the `format` field in every Lampwalk survey file. */
 export const fileFormatName = 'lampwalk-survey-file';
@@ -19,9 +19,29 @@ export const fileFormatName = 'lampwalk-survey-file';
  * versions are migrated on reading; newer ones are refused.
  * Raise it only together with a migration in `src/survey/validate.ts`.
  */
-export const fileFormatVersion = 1;
+export const fileFormatVersion = 2;
 
-/** A version-1 Lampwalk survey file as written to disk. */
+/**
+ * A photo in a survey file: the image and its thumbnail as base64 text
+ * (RFC 4648 standard alphabet, with padding). Version 2 and later.
+ */
+export interface SurveyFilePhoto {
+  id: string;
+  ownerKind: PhotoOwnerKind;
+  /** Id of the room or fixture entry the photo shows; it must be in the survey named by `surveyId`. */
+  ownerId: string;
+  surveyId: string;
+  mimeType: PhotoMimeType;
+  widthPixels: number;
+  heightPixels: number;
+  /** ISO 8601 timestamp. */
+  createdAt: string;
+  imageBase64: string;
+  thumbnailMimeType: PhotoMimeType;
+  thumbnailBase64: string;
+}
+
+/** A Lampwalk survey file (version 2) as written to disk. */
 export interface SurveyFile {
   format: typeof fileFormatName;
   version: typeof fileFormatVersion;
@@ -30,18 +50,26 @@ export interface SurveyFile {
   surveys: Survey[];
   /** The user's own product catalog. */
   catalog: CatalogProduct[];
+  /** Photos of the surveys' rooms and entries (added in version 2; a version-1 file is read as having none). */
+  photos: SurveyFilePhoto[];
 }
 
 /**
- * Wraps surveys and the catalog in a survey file ready for `JSON.stringify`.
- * The arrays are used as given (not copied). Throws a {@link CalcInputError}
- * naming `exportedAt` when the date is invalid or outside the years 0–9999.
+ * Wraps surveys, the catalog and photos in a survey file ready for
+ * `JSON.stringify`. The arrays are used as given (not copied). Throws a
+ * {@link CalcInputError} naming `exportedAt` when the date is invalid or
+ * outside the years 0–9999.
  *
  * @example
  * makeSurveyFile([], [], new Date(Date.UTC(2024, 4, 1, 9, 30)))
- * //=> { format: 'lampwalk-survey-file', version: 1, exportedAt: '2024-05-01T09:30:00.000Z', surveys: [], catalog: [] }
+ * //=> { format: 'lampwalk-survey-file', version: 2, exportedAt: '2024-05-01T09:30:00.000Z', surveys: [], catalog: [], photos: [] }
  */
-export function makeSurveyFile(surveys: Survey[], catalog: CatalogProduct[], exportedAt: Date): SurveyFile {
+export function makeSurveyFile(
+  surveys: Survey[],
+  catalog: CatalogProduct[],
+  exportedAt: Date,
+  photos: SurveyFilePhoto[] = [],
+): SurveyFile {
   if (!(exportedAt instanceof Date) || Number.isNaN(exportedAt.getTime())) {
     throw new CalcInputError('exportedAt', 'must be a valid date');
   }
@@ -56,5 +84,6 @@ export function makeSurveyFile(surveys: Survey[], catalog: CatalogProduct[], exp
     exportedAt: exportedAt.toISOString(),
     surveys,
     catalog,
+    photos,
   };
 }

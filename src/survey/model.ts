@@ -331,3 +331,103 @@ export interface CatalogProduct extends Omit<ProposedProduct, 'catalogId'> {
   retired: boolean;
   sku: string;
 }
+
+// ---------------------------------------------------------------------------
+// Stored shapes (the survey store, `src/survey/store.ts`). Rooms and entries
+// are stored flat, each with its parent's id and its place in the list; the
+// nested `Survey` above is assembled from them (`src/survey/records.ts`).
+
+/** A survey without its rooms: what survey lists show and what the store keeps per survey. */
+export type SurveyHeader = Omit<Survey, 'rooms'>;
+
+/** A room as stored: without its entries, with its survey and its place among that survey's rooms. */
+export interface StoredRoom extends Omit<Room, 'entries'> {
+  surveyId: string;
+  /** Sort key among the survey's rooms (ascending; ties broken by id). */
+  order: number;
+}
+
+/** A fixture entry as stored: with its room, its survey and its place among the room's entries. */
+export interface StoredEntry extends FixtureEntry {
+  roomId: string;
+  surveyId: string;
+  /** Sort key among the room's entries (ascending; ties broken by id). */
+  order: number;
+}
+
+/** Image formats a photo (or its thumbnail) may be stored in. */
+export type PhotoMimeType = 'image/jpeg' | 'image/png' | 'image/webp';
+
+/** What a photo belongs to: a whole room or one fixture entry. */
+export type PhotoOwnerKind = 'room' | 'entry';
+
+/**
+ * A photo taken on the walk. The screen that captures it downscales it and
+ * makes the thumbnail; the store keeps both (thumbnails apart, so lists stay fast).
+ */
+export interface Photo {
+  id: string;
+  ownerKind: PhotoOwnerKind;
+  /** Id of the room or fixture entry shown. */
+  ownerId: string;
+  surveyId: string;
+  mimeType: PhotoMimeType;
+  widthPixels: number;
+  heightPixels: number;
+  image: Blob;
+  thumbnailMimeType: PhotoMimeType;
+  thumbnail: Blob;
+  /** ISO 8601 timestamp. */
+  createdAt: string;
+}
+
+/** The small picture shown in lists, without the full image. */
+export type PhotoThumbnail = Omit<Photo, 'image' | 'widthPixels' | 'heightPixels'>;
+
+/** What a trash item holds. */
+export type TrashKind = 'survey' | 'room' | 'entry' | 'photo';
+
+/**
+ * Something deleted, kept so it can be restored (for at least 30 days).
+ * It holds every record that went with it: a deleted room keeps its entries
+ * and the photos of both.
+ */
+export interface TrashItem {
+  id: string;
+  kind: TrashKind;
+  /** Shown in the trash list: the survey or room name, entry description, or "Photo". */
+  label: string;
+  /** ISO 8601 timestamp of the delete. */
+  deletedAt: string;
+  surveyId: string;
+  /** Where it goes back: the survey of a room, the room of an entry, the owner of a photo; null for a survey. */
+  parentId: string | null;
+  /** The survey itself, for a deleted survey. */
+  survey: SurveyHeader | null;
+  rooms: StoredRoom[];
+  entries: StoredEntry[];
+  photos: Photo[];
+}
+
+/** The answer to the browser's persistent-storage request. */
+export interface PersistenceAnswer {
+  /** ISO 8601 timestamp of the request. */
+  requestedAt: string;
+  /** True when granted, false when refused, null when this browser cannot be asked. */
+  granted: boolean | null;
+}
+
+/** Facts about this installation that the store keeps beside the data. */
+export interface AppSettings {
+  /** Random id of this installation, also kept outside the database to detect eviction. */
+  installId: string;
+  /** ISO 8601 timestamps. */
+  firstUsedAt: string;
+  exampleCatalogSeededAt: string | null;
+  demoSeededAt: string | null;
+  persistence: PersistenceAnswer | null;
+  lastBackupAt: string | null;
+  /** Edits saved since the last full backup. */
+  editsSinceBackup: number;
+  lastEditAt: string | null;
+}

@@ -13,7 +13,7 @@
 import * as v from 'valibot';
 import { CalcInputError } from '../calc/errors.ts';
 import { isKnownCurrency } from '../calc/units.ts';
-import { fileFormatName, fileFormatVersion, type SurveyFile } from './format.ts';
+import { fileFormatName, fileFormatVersion, type SurveyFile, type SurveyFilePhoto } from './format.ts';
 import type {
   BallastKind,
   BuildingType,
@@ -30,6 +30,8 @@ import type {
   HoursOfUse,
   MoistureRating,
   MoneyAssumptions,
+  PhotoMimeType,
+  PhotoOwnerKind,
   ProductForm,
   ProposedProduct,
   Room,
@@ -324,6 +326,8 @@ const controlChanges = [
   'timer',
 ] as const satisfies readonly ControlChange[];
 const taxBases = ['materials', 'everything'] as const satisfies readonly MoneyAssumptions['taxBase'][];
+const photoMimeTypes = ['image/jpeg', 'image/png', 'image/webp'] as const satisfies readonly PhotoMimeType[];
+const photoOwnerKinds = ['room', 'entry'] as const satisfies readonly PhotoOwnerKind[];
 
 // ---------------------------------------------------------------------------
 // Schemas, one per model type.
@@ -559,17 +563,47 @@ export const surveySchema = record(
   'a survey',
 );
 
-/** Schema for a version-1 {@link SurveyFile} (without the id-uniqueness check). */
+/** True for non-empty base64 text: RFC 4648 standard alphabet, padded to a multiple of 4 characters. */
+function isBase64(value: string): boolean {
+  return value.length > 0 && value.length % 4 === 0 && /^[A-Za-z0-9+/]*={0,2}$/.test(value);
+}
+
+const base64Message = (issue: v.BaseIssue<unknown>): string =>
+  `must be non-empty base64 text (letters, digits, "+" and "/", padded with "=" to a multiple of 4 characters) (got ${describe(issue.input)})`;
+const base64 = v.pipe(v.string(base64Message), v.check(isBase64, base64Message));
+const pixels = numberIn(1, 100_000, { integer: true });
+
+/** Schema for {@link SurveyFilePhoto} (that its survey and owner are in the file is checked apart). */
+export const photoSchema = record(
+  {
+    id,
+    ownerKind: oneOf(photoOwnerKinds),
+    ownerId: id,
+    surveyId: id,
+    mimeType: oneOf(photoMimeTypes),
+    widthPixels: pixels,
+    heightPixels: pixels,
+    createdAt: timestamp,
+    imageBase64: base64,
+    thumbnailMimeType: oneOf(photoMimeTypes),
+    thumbnailBase64: base64,
+  },
+  'a photo',
+);
+
+/** Schema for a current-version {@link SurveyFile} (without the id-uniqueness and photo-link checks). */
 export const surveyFileSchema = record(
   {
     format: v.literal(fileFormatName, (issue) => `must be "${fileFormatName}" (got ${describe(issue.input)})`),
     version: v.literal(
       fileFormatVersion,
-      (issue) => `must be the file format version, ${fileFormatVersion} for this Lampwalk (got ${describe(issue.input)})`,
+      (issue) =>
+        `must be the file format version, a whole number from 1 to ${fileFormatVersion} for this Lampwalk (got ${describe(issue.input)})`,
     ),
     exportedAt: timestamp,
     surveys: listOf(surveySchema, 'surveys'),
     catalog: listOf(catalogProductSchema, 'catalog products'),
+    photos: listOf(photoSchema, 'photos'),
   },
   'a Lampwalk survey file',
 );
@@ -604,7 +638,8 @@ const schemasMatchModel: [
   Same<v.InferOutput<typeof moneyAssumptionsSchema>, MoneyAssumptions>,
   Same<v.InferOutput<typeof savingsAssumptionsSchema>, SavingsAssumptions>,
   Same<v.InferOutput<typeof floorSchema>, Room['floor']>,
-] = [true, true, true, true, true, true, true, true, true, true, true, true, true, true];
+  Same<v.InferOutput<typeof photoSchema>, SurveyFilePhoto>,
+] = [true, true, true, true, true, true, true, true, true, true, true, true, true, true, true];
 void schemasMatchModel;
 
 // ---------------------------------------------------------------------------
@@ -678,6 +713,7 @@ class IdRegister {
 
 const surveyIdRule = 'every survey, room and fixture entry needs an id of its own';
 const catalogIdRule = 'every catalog product needs an id of its own';
+const photoIdRule = 'every photo needs an id of its own';
 
 /** `base.key`, or just `key` at the top. */
 function join(base: string, key: string): string {
@@ -693,15 +729,72 @@ function registerSurveyIds(survey: unknown, path: string, register: IdRegister):
   });
 }
 
+/**
+ * Checks that each photo belongs to a survey in the file and shows a room or
+ * entry of that survey. Works on unvalidated input (values of the wrong type
+ * are left to the schema), so these problems are listed with the others.
+ */
+function photoLinkProblems(file: unknown): FileProblem[] {
+  const owners = new Map<string, { rooms: Set<string>; entries: Set<string> }>();
+  for (const survey of ownList(file, 'surveys')) {
+    if (!isObject(survey)) continue;
+    const surveyId = own(survey, 'id');
+    if (typeof surveyId !== 'string') continue;
+    const known = { rooms: new Set<string>(), entries: new Set<string>() };
+    for (const room of ownList(survey, 'rooms')) {
+      if (!isObject(room)) continue;
+      const roomId = own(room, 'id');
+      if (typeof roomId === 'string') known.rooms.add(roomId);
+      for (const entry of ownList(room, 'entries')) {
+        const entryId = isObject(entry) ? own(entry, 'id') : undefined;
+        if (typeof entryId === 'string') known.entries.add(entryId);
+      }
+    }
+    owners.set(surveyId, known);
+  }
+  const problems: FileProblem[] = [];
+  ownList(file, 'photos').forEach((photo, index) => {
+    if (!isObject(photo)) return;
+    const surveyId = own(photo, 'surveyId');
+    const ownerId = own(photo, 'ownerId');
+    const ownerKind = own(photo, 'ownerKind');
+    if (typeof surveyId !== 'string' || surveyId === '') return;
+    const known = owners.get(surveyId);
+    if (!known) {
+      problems.push({
+        path: `photos[${index}].surveyId`,
+        message: `survey ${JSON.stringify(surveyId)} is not in this file; a photo must belong to a survey in the same file`,
+      });
+      return;
+    }
+    if (typeof ownerId !== 'string' || ownerId === '') return;
+    if (ownerKind === 'room' && !known.rooms.has(ownerId)) {
+      problems.push({
+        path: `photos[${index}].ownerId`,
+        message: `survey ${JSON.stringify(surveyId)} has no room ${JSON.stringify(ownerId)}; a photo must show a room or entry of its survey`,
+      });
+    } else if (ownerKind === 'entry' && !known.entries.has(ownerId)) {
+      problems.push({
+        path: `photos[${index}].ownerId`,
+        message: `survey ${JSON.stringify(surveyId)} has no fixture entry ${JSON.stringify(ownerId)}; a photo must show a room or entry of its survey`,
+      });
+    }
+  });
+  return problems;
+}
+
 // ---------------------------------------------------------------------------
 // Versions
 
 /**
- * Upgrades a file from version n to n + 1, keyed by n. Version 1 is the first
- * version, so there are none yet; version 2 adds `migrations[1]`, which fills
- * in the new fields. Never delete one: old backups must keep opening.
+ * Upgrades a file from version n to n + 1, keyed by n, filling in the new
+ * fields. Never delete one: old backups must keep opening.
  */
-const migrations: Partial<Record<number, (file: Record<string, unknown>) => Record<string, unknown>>> = {};
+const migrations: Partial<Record<number, (file: Record<string, unknown>) => Record<string, unknown>>> = {
+  // Version 2 added photos; a version-1 file has none. (A `photos` field in a
+  // version-1 file is left as it is and checked as version-2 photos.)
+  1: (file) => (Object.hasOwn(file, 'photos') ? file : { ...file, photos: [] }),
+};
 
 function migrateToCurrent(
   file: Record<string, unknown>,
@@ -726,12 +819,14 @@ function migrateToCurrent(
 
 /**
  * Validates a whole survey file (already parsed from JSON): format name,
- * version, every field of every survey, room, entry and catalog product, and
- * that ids are unique. Lists up to {@link maxProblems} problems.
+ * version, every field of every survey, room, entry, catalog product and
+ * photo, that ids are unique and that every photo belongs to a room or entry
+ * in the file. Older versions are migrated first (a version-1 file gets
+ * `photos: []`). Lists up to {@link maxProblems} problems.
  *
  * @example
  * parseSurveyFile({ format: 'lampwalk-survey-file', version: 1, exportedAt: '2024-05-01T09:30:00Z', surveys: [], catalog: [] })
- * //=> { ok: true, file: { format: 'lampwalk-survey-file', version: 1, exportedAt: '2024-05-01T09:30:00Z', surveys: [], catalog: [] } }
+ * //=> { ok: true, file: { format: 'lampwalk-survey-file', version: 2, exportedAt: '2024-05-01T09:30:00Z', surveys: [], catalog: [], photos: [] } }
  */
 export function parseSurveyFile(input: unknown): ParseResult {
   if (!isObject(input)) {
@@ -786,7 +881,9 @@ export function parseSurveyFile(input: unknown): ParseResult {
   ownList(current, 'surveys').forEach((survey, index) => registerSurveyIds(survey, `surveys[${index}]`, records));
   const products = new IdRegister(catalogIdRule);
   ownList(current, 'catalog').forEach((product, index) => products.note(product, `catalog[${index}]`));
-  problems.push(...records.problems, ...products.problems);
+  const photos = new IdRegister(photoIdRule);
+  ownList(current, 'photos').forEach((photo, index) => photos.note(photo, `photos[${index}]`));
+  problems.push(...records.problems, ...products.problems, ...photos.problems, ...photoLinkProblems(current));
 
   if (!result.success || problems.length > 0) return { ok: false, problems: capped(problems, '(file)') };
   return { ok: true, file: result.output };
@@ -870,4 +967,18 @@ export function parseSurvey(input: unknown, path = ''): SurveyParseResult {
   problems.push(...register.problems);
   if (!result.success || problems.length > 0) return { ok: false, problems: capped(problems, path === '' ? '(survey)' : path) };
   return { ok: true, survey: result.output };
+}
+
+/**
+ * Checks one value against one of the schemas above (for example a fixture
+ * entry the store is about to save) and returns its problems, each path
+ * prefixed with `path`; an empty list means the value is valid.
+ *
+ * @example
+ * problemsAgainst(fixtureConditionsSchema, { ...conditions, circuitVolts: 5 }, 'conditions')
+ * //=> [{ path: 'conditions.circuitVolts', message: 'must be a number between 12 and 1000 (got 5)' }]
+ */
+export function problemsAgainst(schema: v.GenericSchema, input: unknown, path = ''): FileProblem[] {
+  const result = v.safeParse(schema, input);
+  return result.success ? [] : capped(toProblems(result.issues, path, path === '' ? '(value)' : path), path === '' ? '(value)' : path);
 }

@@ -43,7 +43,7 @@ describe('lampwalk demo', () => {
     const text = await demoFileText();
     const file = JSON.parse(text);
     expect(file.format).toBe('lampwalk-survey-file');
-    expect(file.version).toBe(1);
+    expect(file.version).toBe(2);
     expect(file.surveys).toHaveLength(1);
     expect(file.catalog.length).toBeGreaterThan(0);
   });

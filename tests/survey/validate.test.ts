@@ -250,13 +250,14 @@ describe('makeSurveyFile', () => {
     const file = makeSurveyFile([], [], new Date(Date.UTC(2024, 4, 1, 9, 30)));
     expect(file).toEqual({
       format: 'lampwalk-survey-file',
-      version: 1,
+      version: 2,
       exportedAt: '2024-05-01T09:30:00.000Z',
       surveys: [],
       catalog: [],
+      photos: [],
     });
     expect(fileFormatName).toBe('lampwalk-survey-file');
-    expect(fileFormatVersion).toBe(1);
+    expect(fileFormatVersion).toBe(2);
   });
 
   it('refuses an invalid date, naming exportedAt', () => {
@@ -446,12 +447,12 @@ describe('bad values are refused at their exact path', () => {
 
   it('a newer version: refused, saying to open it with the newer Lampwalk', () => {
     const tree = fileTree();
-    tree.version = 2;
-    tree.photos = [];
+    tree.version = 3;
+    tree.sketches = [];
     const problems = problemsOf(parseSurveyFile(tree));
     expect(problems).toHaveLength(1);
     expect(problems[0]?.path).toBe('version');
-    expect(problems[0]?.message).toContain('written by a newer Lampwalk (file format version 2)');
+    expect(problems[0]?.message).toContain('written by a newer Lampwalk (file format version 3)');
     expect(problems[0]?.message).toContain('Open it with the newer Lampwalk');
   });
 
@@ -459,7 +460,7 @@ describe('bad values are refused at their exact path', () => {
     for (const version of ['1', 0, 1.5, null]) {
       const tree = fileTree();
       tree.version = version;
-      expectProblem(parseSurveyFile(tree), 'version', 'must be the file format version, 1 for this Lampwalk');
+      expectProblem(parseSurveyFile(tree), 'version', 'must be the file format version, a whole number from 1 to 2 for this Lampwalk');
     }
   });
 
