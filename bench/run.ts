@@ -6,6 +6,8 @@ import { performance } from 'node:perf_hooks';
 import { calculateSurvey, recalculateEntry } from '../src/calc/survey.ts';
 import type { Survey } from '../src/survey/model.ts';
 import { seededRandom, syntheticSurvey } from './synthetic.ts';
+import { exportBench } from './export.ts';
+import { storeBench } from './store.ts';
 
 function median(values: number[]): number {
   const s = [...values].sort((a, b) => a - b);
@@ -88,6 +90,8 @@ process.stdout.write(
         warnings: current.warnings.length,
         checksum: Math.round(sink) === 0 ? 0 : 1,
       },
+      export: await exportBench(),
+      store: await storeBench(),
       node: process.version,
     },
     null,

@@ -3,6 +3,10 @@
  * app's backups (see docs/file-format.md).
  *
  *   lampwalk calc <survey.json | ->   every result as JSON
+ *   lampwalk report <survey.json> -o report.pdf    the client report
+ *   lampwalk quote <survey.json> -o quote.pdf      the contractor quote
+ *   lampwalk orders <survey.json>     the order list as CSV
+ *   lampwalk schedule <survey.json>   the fixture schedule as CSV
  *   lampwalk demo                     the demo survey as a survey file
  *
  * Exit codes: 0 done; 2 bad input or usage (with a message naming the field
@@ -10,6 +14,7 @@
  */
 import { CalcInputError } from '../calc/errors.ts';
 import { calculateSurvey, type SurveyResult } from '../calc/survey.ts';
+import type { Survey } from '../survey/model.ts';
 import { demoSurvey } from '../survey/demo.ts';
 import { exampleCatalog } from '../survey/examples.ts';
 import { makeSurveyFile } from '../survey/format.ts';
@@ -21,6 +26,8 @@ export interface CliIo {
   stderr(text: string): void;
   readFile(path: string): Promise<string>;
   readStdin(): Promise<string>;
+  /** Writes a file (the PDF commands need it). */
+  writeFile?(path: string, bytes: Uint8Array): Promise<void>;
 }
 
 export const cliVersion = '0.1.0';
@@ -36,6 +43,23 @@ Commands:
                    circuits and warnings.
                    --survey <id>   only the survey with this id
                    --compact       one line of JSON instead of indented
+  report <file> -o <report.pdf>
+                   Write the client report (PDF) of one survey.
+                   --company <name>  company on the cover (default: the
+                                     survey's "prepared by")
+                   --date <YYYY-MM-DD>  report date (default: today)
+  quote <file> -o <quote.pdf>
+                   Write the contractor quote (PDF) of one survey.
+                   --valid-days <N>  days the quote is valid (default 30)
+                   --company <name>, --date <YYYY-MM-DD>  as for report
+  orders <file>    Print the order list of one survey as CSV: proposed
+                   products summed over all rooms.
+                   --spare <percent>  spare stock, rounded up (default 5)
+  schedule <file>  Print the fixture schedule of one survey as CSV: one row
+                   per fixture entry with its computed figures.
+                   report, quote, orders and schedule take --survey <id>
+                   when the file holds more than one survey ("-" reads
+                   standard input).
   demo             Print the demo survey as a survey file.
   help             Show this text.
 
@@ -122,6 +146,166 @@ async function runCalc(args: readonly string[], io: CliIo): Promise<number> {
   return 0;
 }
 
+type ExportCommand = 'report' | 'quote' | 'orders' | 'schedule';
+
+interface ExportOptions {
+  file: string;
+  surveyId: string | null;
+  output: string | null;
+  company: string | null;
+  date: Date | null;
+  validDays: number | null;
+  sparePercent: number | null;
+}
+
+/** Options each export command accepts (beyond the file and --survey). */
+const exportFlags: Readonly<Record<ExportCommand, readonly string[]>> = {
+  report: ['-o', '--output', '--company', '--date'],
+  quote: ['-o', '--output', '--company', '--date', '--valid-days'],
+  orders: ['--spare'],
+  schedule: [],
+};
+
+function wholeNumber(flag: string, text: string, min: number, max: number): number {
+  if (!/^\d+$/.test(text) || Number(text) < min || Number(text) > max) {
+    throw new UsageError(`${flag} must be a whole number from ${min} to ${max} (got "${text}")`);
+  }
+  return Number(text);
+}
+
+function parseDate(text: string): Date {
+  const match = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text);
+  const date = match ? new Date(Number(match[1]), Number(match[2]) - 1, Number(match[3])) : null;
+  if (!match || !date || date.getMonth() !== Number(match[2]) - 1 || date.getDate() !== Number(match[3])) {
+    throw new UsageError(`--date must be a date written YYYY-MM-DD (got "${text}")`);
+  }
+  return date;
+}
+
+function parseExportArgs(command: ExportCommand, args: readonly string[]): ExportOptions {
+  const options: ExportOptions = { file: '', surveyId: null, output: null, company: null, date: null, validDays: null, sparePercent: null };
+  let file: string | null = null;
+  const allowed = new Set(['--survey', ...exportFlags[command]]);
+  for (let i = 0; i < args.length; i++) {
+    const arg = args[i]!;
+    if (arg.startsWith('-') && arg !== '-') {
+      if (!allowed.has(arg)) throw new UsageError(`unknown option ${arg} for ${command}`);
+      const value = args[i + 1];
+      if (value === undefined || (value.startsWith('-') && value !== '-')) throw new UsageError(`${arg} needs a value`);
+      i++;
+      switch (arg) {
+        case '--survey':
+          options.surveyId = value;
+          break;
+        case '-o':
+        case '--output':
+          options.output = value;
+          break;
+        case '--company':
+          options.company = value;
+          break;
+        case '--date':
+          options.date = parseDate(value);
+          break;
+        case '--valid-days':
+          options.validDays = wholeNumber(arg, value, 1, 365);
+          break;
+        case '--spare':
+          options.sparePercent = wholeNumber(arg, value, 0, 100);
+          break;
+      }
+    } else if (file === null) {
+      file = arg;
+    } else {
+      throw new UsageError(`unexpected argument "${arg}"`);
+    }
+  }
+  if (file === null) throw new UsageError(`${command} needs a survey file (or "-" for standard input)`);
+  if ((command === 'report' || command === 'quote') && options.output === null) {
+    throw new UsageError(`${command} writes a PDF: name it with -o <file.pdf>`);
+  }
+  return { ...options, file };
+}
+
+/** Reads, validates and calculates the one survey an export command works on; null after printing problems. */
+async function loadOneSurvey(io: CliIo, file: string, surveyId: string | null): Promise<{ survey: Survey; result: SurveyResult } | null> {
+  const text = await readInput(io, file);
+  const source = file === '-' ? 'standard input' : file;
+  const parsed = parseSurveyFileText(text);
+  if (!parsed.ok) {
+    io.stderr(describeProblems(source, parsed.problems));
+    return null;
+  }
+  const surveys = parsed.file.surveys.map((survey, index) => ({ survey, index }));
+  let chosen = surveys;
+  if (surveyId !== null) {
+    chosen = surveys.filter((s) => s.survey.id === surveyId);
+    if (chosen.length === 0) throw new UsageError(`no survey with id "${surveyId}" in ${source}`);
+  } else if (surveys.length === 0) {
+    throw new UsageError(`${source} holds no survey`);
+  } else if (surveys.length > 1) {
+    throw new UsageError(`${source} holds ${surveys.length} surveys; pick one with --survey <id> (${surveys.map((s) => s.survey.id).join(', ')})`);
+  }
+  const { survey, index } = chosen[0]!;
+  try {
+    return { survey, result: calculateSurvey(survey) };
+  } catch (err) {
+    if (err instanceof CalcInputError) {
+      io.stderr(describeProblems(source, [{ path: `surveys[${index}].${err.field}`, message: err.problem }]));
+      return null;
+    }
+    throw err;
+  }
+}
+
+async function writeOutput(io: CliIo, path: string, bytes: Uint8Array): Promise<void> {
+  if (!io.writeFile) throw new UsageError('this environment cannot write files');
+  try {
+    await io.writeFile(path, bytes);
+  } catch (err) {
+    const code = typeof err === 'object' && err !== null && 'code' in err ? String(err.code) : '';
+    const reason =
+      code === 'ENOENT' ? 'its folder does not exist' : code === 'EISDIR' ? 'is a folder' : code === 'EACCES' ? 'permission denied' : 'cannot be written';
+    throw new UsageError(`${path}: ${reason}`);
+  }
+}
+
+async function runExport(command: ExportCommand, args: readonly string[], io: CliIo): Promise<number> {
+  const options = parseExportArgs(command, args);
+  const loaded = await loadOneSurvey(io, options.file, options.surveyId);
+  if (!loaded) return 2;
+  // Loaded on demand so `calc` and `demo` never pay for jsPDF.
+  const exports = await import('../export/index.ts');
+  const signal = new AbortController().signal;
+  const company = { companyName: options.company ?? loaded.survey.preparedBy, date: options.date ?? new Date() };
+  try {
+    switch (command) {
+      case 'report': {
+        const bytes = await exports.clientReportPdf(signal, loaded, company);
+        await writeOutput(io, options.output!, bytes);
+        return 0;
+      }
+      case 'quote': {
+        const settings = options.validDays === null ? company : { ...company, validDays: options.validDays };
+        const bytes = await exports.contractorQuotePdf(signal, loaded, settings);
+        await writeOutput(io, options.output!, bytes);
+        return 0;
+      }
+      case 'orders':
+        io.stdout(exports.orderListCsv(loaded.survey, options.sparePercent === null ? {} : { sparePercent: options.sparePercent }));
+        io.stdout('\r\n');
+        return 0;
+      case 'schedule':
+        io.stdout(exports.fixtureScheduleCsv(loaded.survey, loaded.result));
+        io.stdout('\r\n');
+        return 0;
+    }
+  } catch (err) {
+    if (err instanceof CalcInputError) throw new UsageError(`${err.field}: ${err.problem}`);
+    throw err;
+  }
+}
+
 /**
  * Runs the command with `args` (without the program name) and returns the exit code.
  *
@@ -133,6 +317,11 @@ export async function main(args: readonly string[], io: CliIo): Promise<number> 
     switch (command) {
       case 'calc':
         return await runCalc(rest, io);
+      case 'report':
+      case 'quote':
+      case 'orders':
+      case 'schedule':
+        return await runExport(command, rest, io);
       case 'demo': {
         if (rest.length > 0) throw new UsageError(`demo takes no arguments (got "${rest.join(' ')}")`);
         const file = makeSurveyFile([demoSurvey()], [...exampleCatalog], new Date());

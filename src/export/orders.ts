@@ -1,0 +1,247 @@
+/**
+ * The order list: every proposed product summed across rooms (and so across
+ * units copied from one layout), with spare stock, as CSV and as a PDF page.
+ * Products picked from the catalog group by catalog id; custom specs group by
+ * name, watts and lumens.
+ */
+import { checkRange } from '../calc/errors.ts';
+import type { ProductForm, Survey } from '../survey/model.ts';
+import { pause, progressReporter } from './abort.ts';
+import { toCsv, utf8WithBom, type CsvCell } from './csv.ts';
+import { figuresFor } from './figures.ts';
+import { colours, fileSlug, paperFor, PdfWriter, sizes } from './pdf.ts';
+import type { CsvFormat, Exporter, ExportInput, OrderPdfSettings, OrderSettings, ProgressCallback } from './types.ts';
+
+/** Spare stock, percent of the quantity needed, when the settings give none. */
+export const defaultSparePercent = 5;
+
+/** One product to order. */
+export interface OrderLine {
+  /** `catalog:<id>` or `custom:<name>|<watts>|<lumens>`. */
+  key: string;
+  catalogId: string | null;
+  name: string;
+  form: ProductForm;
+  wattsPerUnit: number;
+  lumensPerUnit: number;
+  cctKelvin: number;
+  /** Units needed: Σ fixtures × units per fixture. */
+  needed: number;
+  /** ⌈needed × spare % / 100⌉. */
+  spare: number;
+  /** needed + spare. */
+  toOrder: number;
+  /** Average unit cost over the units needed (the same for every entry unless a copy was edited). */
+  unitCost: number;
+  /** True when entries gave different unit costs for the product. */
+  unitCostVaries: boolean;
+  /** toOrder × unitCost. */
+  orderCost: number;
+  /** Rooms the product goes in. */
+  rooms: number;
+}
+
+/**
+ * Spare units for a quantity: `percent` of it, rounded up to a whole unit.
+ * A tiny tolerance keeps 100 × 5 % at 5 rather than 6 from floating-point noise.
+ *
+ * @example spareUnits(41, 5) //=> 3
+ */
+export function spareUnits(needed: number, percent: number): number {
+  const exact = (needed * percent) / 100;
+  return Math.max(0, Math.ceil(exact - 1e-9));
+}
+
+/**
+ * The order lines of a survey, sorted by product name.
+ *
+ * @example orderLines(demoSurvey(), { sparePercent: 10 })[0].toOrder //=> needed + ⌈needed × 10 %⌉
+ */
+export function orderLines(survey: Survey, settings: OrderSettings = {}): OrderLine[] {
+  const percent = checkRange('sparePercent', settings.sparePercent ?? defaultSparePercent, 0, 100);
+  const groups = new Map<string, { line: OrderLine; cost: number; costs: Set<number>; rooms: Set<string> }>();
+  for (const room of survey.rooms) {
+    for (const entry of room.entries) {
+      const p = entry.proposed;
+      if (!p || entry.count === 0) continue;
+      const key = p.catalogId !== undefined ? `catalog:${p.catalogId}` : `custom:${p.name.trim()}|${p.wattsPerUnit}|${p.lumensPerUnit}`;
+      let group = groups.get(key);
+      if (!group) {
+        group = {
+          line: {
+            key,
+            catalogId: p.catalogId ?? null,
+            name: p.name,
+            form: p.form,
+            wattsPerUnit: p.wattsPerUnit,
+            lumensPerUnit: p.lumensPerUnit,
+            cctKelvin: p.cctKelvin,
+            needed: 0,
+            spare: 0,
+            toOrder: 0,
+            unitCost: 0,
+            unitCostVaries: false,
+            orderCost: 0,
+            rooms: 0,
+          },
+          cost: 0,
+          costs: new Set(),
+          rooms: new Set(),
+        };
+        groups.set(key, group);
+      }
+      const units = entry.count * p.unitsPerFixture;
+      group.line.needed += units;
+      group.cost += units * p.unitCost;
+      group.costs.add(p.unitCost);
+      group.rooms.add(room.id);
+    }
+  }
+  const lines = [...groups.values()].map(({ line, cost, costs, rooms }) => {
+    const spare = spareUnits(line.needed, percent);
+    const unitCost = line.needed > 0 ? cost / line.needed : 0;
+    const toOrder = line.needed + spare;
+    return { ...line, spare, toOrder, unitCost, unitCostVaries: costs.size > 1, orderCost: toOrder * unitCost, rooms: rooms.size };
+  });
+  const collator = new Intl.Collator(survey.locale, { numeric: true });
+  return lines.sort((a, b) => collator.compare(a.name, b.name) || collator.compare(a.key, b.key));
+}
+
+/** Column names of the order list CSV (stable; other programs may read them). */
+export const orderCsvColumns = [
+  'product_key',
+  'catalog_id',
+  'product_name',
+  'form',
+  'watts_per_unit',
+  'lumens_per_unit',
+  'cct_kelvin',
+  'quantity_needed',
+  'spare_percent',
+  'spare_quantity',
+  'order_quantity',
+  'unit_cost',
+  'order_cost',
+  'currency',
+  'rooms',
+] as const;
+
+/**
+ * The order list as CSV text (header row first, CRLF line ends).
+ *
+ * @example orderListCsv(demoSurvey(), { sparePercent: 5 }).split('\r\n')[0] //=> 'product_key,catalog_id,product_name,…'
+ */
+export function orderListCsv(survey: Survey, settings: OrderSettings = {}, format: CsvFormat = {}): string {
+  const percent = settings.sparePercent ?? defaultSparePercent;
+  const rows: CsvCell[][] = [[...orderCsvColumns]];
+  for (const l of orderLines(survey, settings)) {
+    rows.push([
+      l.key,
+      l.catalogId,
+      l.name,
+      l.form,
+      l.wattsPerUnit,
+      l.lumensPerUnit,
+      l.cctKelvin,
+      l.needed,
+      percent,
+      l.spare,
+      l.toOrder,
+      Math.round(l.unitCost * 100) / 100,
+      Math.round(l.orderCost * 100) / 100,
+      survey.money.currency,
+      l.rooms,
+    ]);
+  }
+  return toCsv(rows, format);
+}
+
+/**
+ * The order list as a one-section PDF (more pages only for long lists).
+ *
+ * @example await orderListPdf(signal, { survey, result }, { companyName: 'Ashgrove Electrical', date: new Date() }) //=> Uint8Array (a PDF)
+ */
+export async function orderListPdf(signal: AbortSignal, input: ExportInput, settings: OrderPdfSettings, onProgress?: ProgressCallback): Promise<Uint8Array> {
+  const { survey } = input;
+  const progress = progressReporter(onProgress);
+  progress(0);
+  await pause(signal);
+  const percent = checkRange('sparePercent', settings.sparePercent ?? defaultSparePercent, 0, 100);
+  const lines = orderLines(survey, settings);
+  const fig = figuresFor(survey);
+  const w = new PdfWriter(settings.paper ?? paperFor(survey.locale));
+  const used = w.companyBlock(settings, w.margin.left, 40);
+  w.y = Math.max(40 + used, 70) + 16;
+  w.heading('Order list');
+  w.paragraph(
+    `${survey.name}. Proposed products summed over ${fig.number(survey.rooms.length, 0)} rooms, with ${fig.number(percent, 0)} % spare stock (rounded up to whole units). Prepared ${fig.date(settings.date)}.`,
+    { size: sizes.small },
+  );
+  const right = { halign: 'right' as const };
+  const total = lines.reduce((sum, l) => sum + l.orderCost, 0);
+  w.table({
+    head: [['Product', 'Catalog id', 'W', 'lm', 'Needed', 'Spare', 'To order', 'Unit cost', 'Cost']],
+    body: lines.map((l) => [
+      l.name,
+      l.catalogId ?? 'custom',
+      fig.number(l.wattsPerUnit, 1),
+      fig.number(l.lumensPerUnit, 0),
+      fig.number(l.needed, 0),
+      fig.number(l.spare, 0),
+      fig.number(l.toOrder, 0),
+      l.unitCostVaries ? `${fig.money(l.unitCost)} avg.` : fig.money(l.unitCost),
+      fig.money(l.orderCost),
+    ]),
+    foot: [
+      [
+        'Total',
+        '',
+        '',
+        '',
+        { content: fig.number(lines.reduce((n, l) => n + l.needed, 0), 0), styles: right },
+        { content: fig.number(lines.reduce((n, l) => n + l.spare, 0), 0), styles: right },
+        { content: fig.number(lines.reduce((n, l) => n + l.toOrder, 0), 0), styles: right },
+        '',
+        { content: fig.money(total), styles: right },
+      ],
+    ],
+    columnStyles: { 2: right, 3: right, 4: right, 5: right, 6: { ...right, fontStyle: 'bold' }, 7: right, 8: right },
+  });
+  w.paragraph('Costs are the survey\u2019s unit costs before markup and tax; check prices and stock with the supplier.', {
+    size: sizes.small,
+    colour: colours.muted,
+  });
+  w.decorate(`Order list \u2014 ${survey.site.name || survey.name}`, `${settings.companyName} \u00b7 ${fig.date(settings.date)}`, 1);
+  progress(0.9);
+  await pause(signal);
+  const bytes = w.bytes();
+  progress(1);
+  return bytes;
+}
+
+/** The order list exporter, CSV. */
+export const orderListCsvExporter: Exporter<OrderSettings & CsvFormat> = {
+  id: 'order-list-csv',
+  label: 'Order list (CSV)',
+  mimeType: 'text/csv',
+  extension: 'csv',
+  async run(signal, input: ExportInput, settings, onProgress) {
+    const progress = progressReporter(onProgress);
+    await pause(signal);
+    const text = orderListCsv(input.survey, settings, settings);
+    progress(1);
+    return { fileName: `${fileSlug(input.survey.name)}-orders.csv`, mimeType: 'text/csv;charset=utf-8', bytes: utf8WithBom(text) };
+  },
+};
+
+/** The order list exporter, PDF page. */
+export const orderListPdfExporter: Exporter<OrderPdfSettings> = {
+  id: 'order-list-pdf',
+  label: 'Order list (PDF)',
+  mimeType: 'application/pdf',
+  extension: 'pdf',
+  async run(signal, input, settings, onProgress) {
+    const bytes = await orderListPdf(signal, input, settings, onProgress);
+    return { fileName: `${fileSlug(input.survey.name)}-orders.pdf`, mimeType: 'application/pdf', bytes };
+  },
+};
