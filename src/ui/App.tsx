@@ -1,353 +1,167 @@
 /**
- * First screen: opens the survey store (seeding the example catalog and the
- * demo survey on first run), then shows the most recently changed stored
- * survey's headline figures and warnings, straight from the calculation
- * engine. Also says plainly when the browser deleted the saved data, when
- * another tab is in the way, and how long since the last backup. The field
- * screens replace the survey view.
+ * Lampwalk's root: opens the store (seeding the example catalog and the demo
+ * survey on first run), keeps the user's preferences and theme, routes by the
+ * address hash, and shows what start-up found — another tab in the way, a
+ * reload needed, or data the browser deleted (with the offer to restore).
+ * First run opens the demo survey. The survey screens and the catalog and
+ * settings screens load on first use.
  */
-import { useEffect, useState } from 'preact/hooks';
-import { calculateSurvey, type SurveyResult } from '../calc/survey.ts';
-import { formatMoney, formatNumber, luxToFootcandles } from '../calc/units.ts';
-import type { Warning } from '../calc/warnings.ts';
-import type { Survey } from '../survey/model.ts';
-import {
-  StoreError,
-  startLampwalk,
-  type BackupStatus,
-  type ClashChoice,
-  type ClosedReason,
-  type StorageUsage,
-  type SurveyStore,
-} from '../survey/store.ts';
+import type { ComponentChildren } from 'preact';
+import { useEffect, useMemo, useState } from 'preact/hooks';
+import { startLampwalk, type StartState, type SurveyStore } from '../survey/store.ts';
+import { Notices } from './components/Notices.tsx';
+import { TopBar } from './components/Layout.tsx';
+import { lazyScreen } from './lazy.tsx';
+import { go, useRoute, type Route } from './router.ts';
+import { SurveysScreen } from './screens/SurveysScreen.tsx';
+import type { SurveyRoute } from './screens/SurveyArea.tsx';
+import type { ToolsRoute } from './screens/ToolsArea.tsx';
+import { AppContext, type AppServices, type Notice } from './state/context.ts';
+import { messageOf } from './state/errors.ts';
+import { loadPreferences, savePreferences, type Preferences } from './state/preferences.ts';
 
-function describeIrr(result: SurveyResult): string {
-  const irr = result.economics.internalRateOfReturn;
-  if (irr.kind === 'unique') return `${formatNumber(irr.ratePerYear * 100, 'en-US', 1)} %`;
-  if (irr.kind === 'multiple') return 'several rates (see report)';
-  return 'none';
-}
+const surveyScreens = lazyScreen<{ route: SurveyRoute }>(() => import('./screens/SurveyArea.tsx').then((module) => module.SurveyArea));
+const toolScreens = lazyScreen<{ route: ToolsRoute }>(() => import('./screens/ToolsArea.tsx').then((module) => module.ToolsArea));
 
-function Figure(props: { label: string; value: string }) {
-  return (
-    <div class="figure">
-      <dt>{props.label}</dt>
-      <dd>{props.value}</dd>
-    </div>
-  );
-}
+/** Id of the demo survey that first run opens. */
+const demoSurveyId = 'demo-tallowmere';
 
-function WarningItem(props: { warning: Warning }) {
-  const w = props.warning;
-  return (
-    <li class={`warning warning--${w.severity}`}>
-      <strong>
-        <span class="severity">{w.severity}</span> {w.title}
-      </strong>
-      <p>{w.message}</p>
-      <p class="action">{w.action}</p>
-    </li>
-  );
-}
+type Boot =
+  | { kind: 'opening' }
+  | { kind: 'blocked' }
+  | { kind: 'reload' }
+  | { kind: 'failed'; message: string }
+  | { kind: 'ready'; store: SurveyStore; state: StartState; evictedSince: string | null };
 
-function SurveyView(props: { survey: Survey; result: SurveyResult }) {
-  const { survey, result } = props;
-  const { locale } = survey;
-  const money = (n: number) => formatMoney(n, result.currency, locale, 0);
-  const t = result.totals;
-  const payback = t.money.simplePaybackYears;
+function Holding(props: { children: ComponentChildren }) {
   return (
     <>
-      <section aria-labelledby="totals-heading">
-        <h2 id="totals-heading">What the swap does</h2>
-        <dl class="figures">
-          <Figure label="Energy saved" value={`${formatNumber(t.savings.kwhPerYear, locale)} kWh/yr`} />
-          <Figure label="Demand saved (peak)" value={`${formatNumber(t.savings.peakKw, locale, 2)} kW`} />
-          <Figure label="Money saved" value={`${money(t.money.totalPerYear)}/yr`} />
-          <Figure label="Project cost, net of rebates" value={money(t.money.cost.net)} />
-          <Figure label="Simple payback" value={payback === null ? 'never' : `${formatNumber(payback, locale, 1)} years`} />
-          <Figure label={`NPV over ${survey.money.analysisYears} years`} value={money(result.economics.netPresentValue)} />
-          <Figure label="IRR" value={describeIrr(result)} />
-          <Figure label="CO2 avoided" value={`${formatNumber(t.co2KgPerYear / 1000, locale, 2)} t/yr`} />
-        </dl>
-      </section>
-      <section aria-labelledby="rooms-heading">
-        <h2 id="rooms-heading">Rooms</h2>
-        <table>
-          <thead>
-            <tr>
-              <th scope="col">Room</th>
-              <th scope="col">kWh/yr saved</th>
-              <th scope="col">Light now → after (fc)</th>
-              <th scope="col">Target (fc)</th>
-            </tr>
-          </thead>
-          <tbody>
-            {result.rooms.map((r) => (
-              <tr key={r.roomId}>
-                <th scope="row">{r.name}</th>
-                <td>{formatNumber(r.savings.kwhPerYear, locale)}</td>
-                <td>
-                  {r.adequacy.existingLux === null ? '—' : formatNumber(luxToFootcandles(r.adequacy.existingLux), locale)} →{' '}
-                  {r.adequacy.proposedLux === null ? '—' : formatNumber(luxToFootcandles(r.adequacy.proposedLux), locale)}
-                </td>
-                <td>{formatNumber(r.adequacy.targetFootcandles, locale)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </section>
-      <section aria-labelledby="warnings-heading">
-        <h2 id="warnings-heading">Fix before ordering ({result.warnings.length})</h2>
-        <ul class="warnings">
-          {result.warnings.map((w, i) => (
-            <WarningItem key={`${w.code}-${w.entryId ?? w.roomId ?? i}`} warning={w} />
-          ))}
-        </ul>
-      </section>
+      <TopBar current="surveys" />
+      <main id="main" class="screen">
+        {props.children}
+      </main>
     </>
   );
 }
 
-/** What the screen shows. */
-type Screen =
-  | { kind: 'opening' }
-  /** An older Lampwalk in another tab keeps the database; opening waits for it. */
-  | { kind: 'blocked' }
-  /** This tab must reload (updated in another tab, data deleted, or the browser closed the database). */
-  | { kind: 'reload'; reason: ClosedReason }
-  | { kind: 'failed'; message: string }
-  /** The browser deleted the saved data. */
-  | { kind: 'evicted'; store: SurveyStore; since: string | null }
-  | { kind: 'ready'; store: SurveyStore; view: { survey: Survey; result: SurveyResult } | null };
-
-/** What the "your data" panel shows. */
-interface DataStatus {
-  backup: BackupStatus;
-  usage: StorageUsage | null;
-  persisted: boolean | null;
-}
-
-/** A message fit to show for any failure (StoreError messages are written for the user). */
-function messageOf(error: unknown): string {
-  if (error instanceof StoreError) return error.message;
-  if (error instanceof Error) return `Something went wrong: ${error.message}`;
-  return 'Something went wrong.';
-}
-
-async function openNewest(store: SurveyStore): Promise<{ survey: Survey; result: SurveyResult } | null> {
-  const [newest] = await store.listSurveys();
-  if (!newest) return null;
-  const survey = await store.loadSurvey(newest.id);
-  return { survey, result: calculateSurvey(survey) };
-}
-
-function download(fileName: string, text: string): void {
-  const url = URL.createObjectURL(new Blob([text], { type: 'application/json' }));
-  const link = document.createElement('a');
-  link.href = url;
-  link.download = fileName;
-  link.click();
-  setTimeout(() => URL.revokeObjectURL(url), 10_000);
-}
-
-function formatMegabytes(bytes: number): string {
-  return `${formatNumber(bytes / 1_000_000, 'en-US', 1)} MB`;
-}
-
-/** Backup, restore and storage facts, with the reminder (only the restore when `restoreOnly`). */
-function DataPanel(props: { store: SurveyStore; onRestored: () => void; restoreOnly?: boolean }) {
-  const { store, onRestored, restoreOnly = false } = props;
-  const [status, setStatus] = useState<DataStatus | null>(null);
-  const [notice, setNotice] = useState<string | null>(null);
-  const [pending, setPending] = useState<{ text: string; names: string[] } | null>(null);
-
-  const refresh = async () => {
-    const [backup, usage, settings] = await Promise.all([store.backupStatus(), store.storageUsage(), store.settings()]);
-    setStatus({ backup, usage, persisted: settings?.persistence?.granted ?? null });
-  };
-  useEffect(() => {
-    refresh().catch((error: unknown) => setNotice(messageOf(error)));
-  }, [store]);
-
-  const backUp = async () => {
-    try {
-      const backup = await store.exportEverything();
-      download(backup.fileName, backup.text);
-      setNotice(`Backup saved as ${backup.fileName}.`);
-      await refresh();
-    } catch (error) {
-      setNotice(messageOf(error));
-    }
-  };
-
-  const restore = async (text: string, choice: ClashChoice) => {
-    try {
-      const report = await store.importBackup(text, choice);
-      await store.initialise({ exampleCatalog: false, demoSurvey: false });
-      setPending(null);
-      setNotice(`Restored ${report.surveyIds.length} survey(s), ${report.entries} fixture entries and ${report.photos} photo(s).`);
-      onRestored();
-      await refresh();
-    } catch (error) {
-      setNotice(messageOf(error));
-    }
-  };
-
-  const pick = async (event: Event) => {
-    const input = event.currentTarget as HTMLInputElement;
-    const file = input.files?.[0];
-    input.value = '';
-    if (!file) return;
-    try {
-      const text = await file.text();
-      const preview = await store.previewImport(text);
-      if (preview.needsChoice) setPending({ text, names: preview.surveys.filter((s) => s.alreadyStored).map((s) => s.name) });
-      else await restore(text, 'refuse');
-    } catch (error) {
-      setNotice(messageOf(error));
-    }
-  };
-
-  const backup = restoreOnly ? undefined : status?.backup;
-  return (
-    <section aria-labelledby="data-heading">
-      <h2 id="data-heading">{restoreOnly ? 'Restore a backup' : 'Your data on this device'}</h2>
-      {backup && (
-        <p>
-          {backup.lastBackupAt === null ? 'No backup yet' : `Last backup ${backup.timeSinceBackup} ago`}
-          {`; ${backup.editsSinceBackup} change${backup.editsSinceBackup === 1 ? '' : 's'} since.`}
-          {backup.remind ? ' Download a backup now: a phone can lose its browser data.' : ''}
-        </p>
-      )}
-      {!restoreOnly && status?.usage && (
-        <p>
-          Using {formatMegabytes(status.usage.usageBytes)} of {formatMegabytes(status.usage.quotaBytes)} the browser allows
-          {status.persisted === true ? '; kept even when space runs low.' : status.persisted === false ? '; the browser may clear it when space runs low.' : '.'}
-        </p>
-      )}
-      <p>
-        {!restoreOnly && (
-          <>
-            <button type="button" onClick={backUp}>
-              Download a backup
-            </button>{' '}
-          </>
-        )}
-        <label>
-          Restore from a backup file <input type="file" accept=".json,application/json" onChange={pick} />
-        </label>
-      </p>
-      {pending && (
-        <div role="alertdialog" aria-label="Already on this device">
+function Routed(props: { route: Route; evictedSince: string | null | undefined; onRecovered: () => void }) {
+  const { route } = props;
+  switch (route.name) {
+    case 'surveys':
+      return <SurveysScreen evictedSince={props.evictedSince} onRecovered={props.onRecovered} />;
+    case 'survey':
+    case 'room':
+    case 'entry':
+      return <surveyScreens.View route={route} />;
+    case 'catalog':
+    case 'product':
+    case 'settings':
+      return <toolScreens.View route={route} />;
+    case 'missing':
+      return (
+        <Holding>
+          <h1>Nothing here</h1>
           <p>
-            {pending.names.length > 0 ? `Already here: ${pending.names.join(', ')}.` : 'Some of this file is already here.'} Keep both, or
-            replace what is here (it goes to the trash)?
+            This address does not lead to a Lampwalk screen. <a href="#/">Go to the surveys</a>.
           </p>
-          <button type="button" onClick={() => restore(pending.text, 'copy')}>
-            Import as a copy
-          </button>{' '}
-          <button type="button" onClick={() => restore(pending.text, 'replace')}>
-            Replace
-          </button>{' '}
-          <button type="button" onClick={() => setPending(null)}>
-            Cancel
-          </button>
-        </div>
-      )}
-      {notice && <p role="status">{notice}</p>}
-    </section>
-  );
+        </Holding>
+      );
+  }
 }
 
+/**
+ * The whole app: start-up, preferences, routes and the notice area.
+ *
+ * @example render(<App />, document.getElementById('app')) //=> the first screen (the demo survey on first run)
+ */
 export function App() {
-  const [screen, setScreen] = useState<Screen>({ kind: 'opening' });
+  const [boot, setBoot] = useState<Boot>({ kind: 'opening' });
+  const [preferences, setPreferencesState] = useState<Preferences>(loadPreferences);
+  const [notice, setNotice] = useState<Notice | null>(null);
+  const route = useRoute();
 
   useEffect(() => {
     let cancelled = false;
     startLampwalk({
-      onBlocked: () => setScreen({ kind: 'blocked' }),
-      onClosed: (reason) => setScreen({ kind: 'reload', reason }),
+      onBlocked: () => setBoot({ kind: 'blocked' }),
+      onClosed: () => setBoot({ kind: 'reload' }),
     })
-      .then(async ({ store, state, previousUse }) => {
+      .then(({ store, state, previousUse }) => {
         if (cancelled) return;
-        if (state === 'evicted') {
-          setScreen({ kind: 'evicted', store, since: previousUse?.firstUsedAt ?? null });
-          return;
-        }
-        setScreen({ kind: 'ready', store, view: await openNewest(store) });
+        if (state === 'first-run' && parseHashIsHome()) go({ name: 'survey', surveyId: demoSurveyId }, true);
+        if (state === 'evicted' && !parseHashIsHome()) go({ name: 'surveys' }, true);
+        setBoot({ kind: 'ready', store, state, evictedSince: state === 'evicted' ? (previousUse?.firstUsedAt ?? null) : null });
       })
-      .catch((error: unknown) => setScreen({ kind: 'failed', message: messageOf(error) }));
+      .catch((error: unknown) => setBoot({ kind: 'failed', message: messageOf(error) }));
     return () => {
       cancelled = true;
     };
   }, []);
 
-  const show = (store: SurveyStore) => {
-    openNewest(store)
-      .then((view) => setScreen({ kind: 'ready', store, view }))
-      .catch((error: unknown) => setScreen({ kind: 'failed', message: messageOf(error) }));
-  };
+  useEffect(() => {
+    const root = document.documentElement;
+    if (preferences.theme === 'auto') delete root.dataset.theme;
+    else root.dataset.theme = preferences.theme;
+  }, [preferences.theme]);
 
-  return (
-    <main>
-      <header class="masthead">
-        <h1>Lampwalk</h1>
-        <p>{screen.kind === 'ready' && screen.view ? screen.view.survey.name : 'Room-by-room LED retrofit surveys'}</p>
-      </header>
-      {screen.kind === 'opening' && <p>Opening your surveys…</p>}
-      {screen.kind === 'blocked' && (
-        <p role="alert">Lampwalk is open in another tab with an older version. Close that tab; this one carries on by itself.</p>
-      )}
-      {screen.kind === 'reload' && (
-        <p role="alert">
-          {screen.reason === 'deleted-elsewhere'
-            ? 'Lampwalk’s saved data was deleted (in another tab, or by clearing the browser’s site data).'
-            : screen.reason === 'newer-version-elsewhere'
-              ? 'Lampwalk was updated in another tab. Everything saved is kept.'
-              : 'Lampwalk stopped reaching its saved data. Everything saved is kept.'}{' '}
-          <button type="button" onClick={() => location.reload()}>
-            Reload
-          </button>
-        </p>
-      )}
-      {screen.kind === 'failed' && <p role="alert">{screen.message}</p>}
-      {screen.kind === 'evicted' && (
-        <section aria-labelledby="evicted-heading">
-          <h2 id="evicted-heading">Your saved surveys are gone</h2>
+  // Fetch the survey screens while the user reads the list, so opening a survey is instant (and works offline).
+  useEffect(() => {
+    if (boot.kind !== 'ready') return;
+    const idle = (window as { requestIdleCallback?: (run: () => void) => number }).requestIdleCallback ?? ((run: () => void) => window.setTimeout(run, 300));
+    idle(() => {
+      surveyScreens.preload().catch(() => undefined);
+    });
+  }, [boot.kind]);
+
+  const services = useMemo<AppServices | null>(() => {
+    if (boot.kind !== 'ready') return null;
+    return {
+      store: boot.store,
+      preferences,
+      setPreferences: (change) => {
+        const next = { ...preferences, ...change };
+        const refused = savePreferences(next);
+        if (refused && refused.startsWith('Not saved')) return refused;
+        setPreferencesState(next);
+        return refused;
+      },
+      notify: setNotice,
+    };
+  }, [boot, preferences]);
+
+  if (boot.kind !== 'ready' || !services) {
+    return (
+      <Holding>
+        {boot.kind === 'opening' && <p role="status">Opening your surveys…</p>}
+        {boot.kind === 'blocked' && <p role="alert">Lampwalk is open in another tab with an older version. Close that tab; this one carries on by itself.</p>}
+        {boot.kind === 'reload' && (
           <p role="alert">
-            Lampwalk was used in this browser{screen.since ? ` since ${new Date(screen.since).toLocaleDateString()}` : ''}, but the browser
-            has deleted its saved data (browsers do this when space runs low or after a long time unused). Restore your latest backup file
-            below, or start again with the demo survey.
-          </p>
-          <p>
-            <button
-              type="button"
-              onClick={() => {
-                const { store } = screen;
-                store
-                  .initialise({ exampleCatalog: true, demoSurvey: true })
-                  .then(() => show(store))
-                  .catch((error: unknown) => setScreen({ kind: 'failed', message: messageOf(error) }));
-              }}
-            >
-              Start again with the demo
+            Lampwalk was updated in another tab, so this tab has stopped saving. Everything saved so far is kept.{' '}
+            <button type="button" class="button" onClick={() => location.reload()}>
+              Reload
             </button>
           </p>
-          <DataPanel store={screen.store} onRestored={() => show(screen.store)} restoreOnly />
-        </section>
-      )}
-      {screen.kind === 'ready' && (
-        <>
-          {screen.view ? <SurveyView survey={screen.view.survey} result={screen.view.result} /> : <p>No surveys saved yet.</p>}
-          <DataPanel store={screen.store} onRestored={() => show(screen.store)} />
-        </>
-      )}
-      <footer>
-        <p>
-          Estimates, not guarantees. Wiring work must follow local codes and be done by a licensed electrician.
-        </p>
+        )}
+        {boot.kind === 'failed' && <p role="alert">{boot.message}</p>}
+      </Holding>
+    );
+  }
+
+  return (
+    <AppContext.Provider value={services}>
+      <Routed
+        route={route}
+        evictedSince={boot.state === 'evicted' ? boot.evictedSince : undefined}
+        onRecovered={() => setBoot({ ...boot, state: 'returning', evictedSince: null })}
+      />
+      <Notices notice={notice} onDismiss={() => setNotice(null)} />
+      <footer class="footer">
+        <p>Estimates, not guarantees. Wiring work must follow local codes and be done by a licensed electrician.</p>
       </footer>
-    </main>
+    </AppContext.Provider>
   );
+}
+
+function parseHashIsHome(): boolean {
+  return location.hash === '' || location.hash === '#' || location.hash === '#/';
 }
