@@ -8,6 +8,7 @@ import type { Survey } from '../src/survey/model.ts';
 import { seededRandom, syntheticSurvey } from './synthetic.ts';
 import { exportBench } from './export.ts';
 import { storeBench } from './store.ts';
+import { uiBench } from './ui.ts';
 
 function median(values: number[]): number {
   const s = [...values].sort((a, b) => a - b);
@@ -92,6 +93,8 @@ process.stdout.write(
       },
       export: await exportBench(),
       store: await storeBench(),
+      offline: await (await import('./offline.ts')).offlineBench(),
+      ui: await uiBench(),
       node: process.version,
     },
     null,
