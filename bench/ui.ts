@@ -35,9 +35,9 @@ export interface UiBenchFigures {
   openSurvey1000: {
     entries: number;
     rooms: number;
-    /** First open, the survey screens' code not yet loaded. */
+    /** The first open of this survey in the page (the survey screens' code is already fetched: the app loads it while idle). */
     firstOpenMs: number;
-    /** Median of later opens (code loaded; survey read, checked, calculated and rendered each time). */
+    /** Median of later opens, each after another survey was open: read from the store, checked, calculated and rendered every time. */
     medianMs: number;
     runs: number;
   };
