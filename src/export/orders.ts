@@ -9,7 +9,7 @@ import type { ProductForm, Survey } from '../survey/model.ts';
 import { pause, progressReporter } from './abort.ts';
 import { toCsv, utf8WithBom, type CsvCell } from './csv.ts';
 import { figuresFor } from './figures.ts';
-import { colours, fileSlug, paperFor, PdfWriter, sizes } from './pdf.ts';
+import { colours, fileSlug, paperFor, pdfExporter, PdfWriter, sizes } from './pdf.ts';
 import type { CsvFormat, Exporter, ExportInput, OrderPdfSettings, OrderSettings, ProgressCallback } from './types.ts';
 
 /** Spare stock, percent of the quantity needed, when the settings give none. */
@@ -235,13 +235,4 @@ export const orderListCsvExporter: Exporter<OrderSettings & CsvFormat> = {
 };
 
 /** The order list exporter, PDF page. */
-export const orderListPdfExporter: Exporter<OrderPdfSettings> = {
-  id: 'order-list-pdf',
-  label: 'Order list (PDF)',
-  mimeType: 'application/pdf',
-  extension: 'pdf',
-  async run(signal, input, settings, onProgress) {
-    const bytes = await orderListPdf(signal, input, settings, onProgress);
-    return { fileName: `${fileSlug(input.survey.name)}-orders.pdf`, mimeType: 'application/pdf', bytes };
-  },
-};
+export const orderListPdfExporter: Exporter<OrderPdfSettings> = pdfExporter('order-list-pdf', 'Order list (PDF)', 'orders', orderListPdf);

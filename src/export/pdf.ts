@@ -11,7 +11,7 @@
 import { jsPDF } from 'jspdf';
 import { autoTable, type CellInput, type RowInput, type UserOptions } from 'jspdf-autotable';
 import { CalcInputError } from '../calc/errors.ts';
-import type { CompanySettings, ImageInput, PaperSize } from './types.ts';
+import type { CompanySettings, Exporter, ExporterId, ExportInput, ImageInput, PaperSize, ProgressCallback } from './types.ts';
 import { pdfSafeText } from './text.ts';
 
 /** An RGB colour, 0–255 each. */
@@ -331,4 +331,27 @@ export function fileSlug(name: string): string {
     .slice(0, 60)
     .replace(/-+$/g, '');
   return slug === '' ? 'survey' : slug;
+}
+
+/**
+ * An exporter for a PDF document made by `make`, named `<survey>-<suffix>.pdf`.
+ *
+ * @example pdfExporter('client-report', 'Client report (PDF)', 'report', clientReportPdf).extension //=> 'pdf'
+ */
+export function pdfExporter<Options>(
+  id: ExporterId,
+  label: string,
+  suffix: string,
+  make: (signal: AbortSignal, input: ExportInput, options: Options, onProgress?: ProgressCallback) => Promise<Uint8Array>,
+): Exporter<Options> {
+  return {
+    id,
+    label,
+    mimeType: 'application/pdf',
+    extension: 'pdf',
+    async run(signal, input, options, onProgress) {
+      const bytes = await make(signal, input, options, onProgress);
+      return { fileName: `${fileSlug(input.survey.name)}-${suffix}.pdf`, mimeType: 'application/pdf', bytes };
+    },
+  };
 }

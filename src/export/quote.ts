@@ -12,7 +12,7 @@ import type { SurveyResult } from '../calc/survey.ts';
 import type { Survey } from '../survey/model.ts';
 import { pause, progressReporter } from './abort.ts';
 import { figuresFor, type Figures } from './figures.ts';
-import { colours, fileSlug, paperFor, PdfWriter, sizes } from './pdf.ts';
+import { colours, paperFor, pdfExporter, PdfWriter, sizes } from './pdf.ts';
 import type { Exporter, ExportInput, ProgressCallback, QuoteSettings } from './types.ts';
 
 /** Days a quote stays valid when the settings give none. */
@@ -258,13 +258,4 @@ export async function contractorQuotePdf(
 }
 
 /** The contractor quote exporter. */
-export const contractorQuote: Exporter<QuoteSettings> = {
-  id: 'contractor-quote',
-  label: 'Contractor quote (PDF)',
-  mimeType: 'application/pdf',
-  extension: 'pdf',
-  async run(signal, input, settings, onProgress) {
-    const bytes = await contractorQuotePdf(signal, input, settings, onProgress);
-    return { fileName: `${fileSlug(input.survey.name)}-quote.pdf`, mimeType: 'application/pdf', bytes };
-  },
-};
+export const contractorQuote: Exporter<QuoteSettings> = pdfExporter('contractor-quote', 'Contractor quote (PDF)', 'quote', contractorQuotePdf);

@@ -11,7 +11,7 @@ import type { ControlChange, Survey } from '../survey/model.ts';
 import { pause, progressReporter } from './abort.ts';
 import { drawCashFlowChart, drawKwhByRoomChart } from './charts.ts';
 import { figuresFor, lightQualitySentence, lightVerdict, type Figures, type LightVerdict } from './figures.ts';
-import { checkImage, colours, fileSlug, paperFor, PdfWriter, sizes } from './pdf.ts';
+import { checkImage, colours, paperFor, pdfExporter, PdfWriter, sizes } from './pdf.ts';
 import type { Exporter, ExportInput, ProgressCallback, ReportSettings } from './types.ts';
 import type { CellDef, RowInput } from 'jspdf-autotable';
 
@@ -652,13 +652,4 @@ export async function clientReportPdf(
 }
 
 /** The client report exporter. */
-export const clientReport: Exporter<ReportSettings> = {
-  id: 'client-report',
-  label: 'Client report (PDF)',
-  mimeType: 'application/pdf',
-  extension: 'pdf',
-  async run(signal, input, settings, onProgress) {
-    const bytes = await clientReportPdf(signal, input, settings, onProgress);
-    return { fileName: `${fileSlug(input.survey.name)}-report.pdf`, mimeType: 'application/pdf', bytes };
-  },
-};
+export const clientReport: Exporter<ReportSettings> = pdfExporter('client-report', 'Client report (PDF)', 'report', clientReportPdf);
