@@ -35,12 +35,39 @@ function leaveOutJspdfHelpers(): Plugin {
   };
 }
 
+/**
+ * The Content-Security-Policy, written once in index.html (a meta tag, so it
+ * holds wherever the build is hosted). `vite preview` also sends it as a
+ * header, with frame-ancestors, which browsers ignore in a meta tag.
+ */
+const contentSecurityPolicy = (() => {
+  const html = readFileSync(new URL('./index.html', import.meta.url), 'utf8');
+  const match = /http-equiv="Content-Security-Policy"\s+content="([^"]+)"/.exec(html);
+  if (!match?.[1]) throw new Error('index.html holds no Content-Security-Policy meta tag');
+  return match[1];
+})();
+
+/**
+ * The development server injects its own client and hot-reload helpers, some
+ * inline; the policy applies to the build (and `vite preview`) only.
+ */
+function policyInBuildOnly(): Plugin {
+  return {
+    name: 'lampwalk:policy-in-build-only',
+    apply: 'serve',
+    transformIndexHtml(html) {
+      return html.replace(/\s*<meta\s+http-equiv="Content-Security-Policy"[^>]*>/, '');
+    },
+  };
+}
+
 export default defineConfig({
   define: {
     __LAMPWALK_BUILD__: JSON.stringify(buildId),
   },
   plugins: [
     leaveOutJspdfHelpers(),
+    policyInBuildOnly(),
     preact(),
     VitePWA({
       // generateSW: the worker only precaches and serves the app shell, which
@@ -97,5 +124,6 @@ export default defineConfig({
   },
   preview: {
     host: '127.0.0.1',
+    headers: { 'Content-Security-Policy': `${contentSecurityPolicy}; frame-ancestors 'none'` },
   },
 });

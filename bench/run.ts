@@ -6,7 +6,9 @@ import { performance } from 'node:perf_hooks';
 import { calculateSurvey, recalculateEntry } from '../src/calc/survey.ts';
 import type { Survey } from '../src/survey/model.ts';
 import { seededRandom, syntheticSurvey } from './synthetic.ts';
+import { choiceBench } from './choice.ts';
 import { exportBench } from './export.ts';
+import { phasingBench } from './phasing.ts';
 import { storeBench } from './store.ts';
 import { uiBench } from './ui.ts';
 
@@ -91,6 +93,8 @@ process.stdout.write(
         warnings: current.warnings.length,
         checksum: Math.round(sink) === 0 ? 0 : 1,
       },
+      phasing: phasingBench(),
+      choice: choiceBench(),
       export: await exportBench(),
       store: await storeBench(),
       offline: await (await import('./offline.ts')).offlineBench(),

@@ -242,7 +242,8 @@ function checkMoney(survey: Survey): void {
   checkRange('money.relampMinutes', m.relampMinutes, 0, 600);
 }
 
-function floorOf(room: Room): { squareMetres: number; lengthMetres: number; widthMetres: number; assumedSquare: boolean } {
+/** A room's floor as area and sides (an area alone is taken as a square). Shared with the automatic product choice. */
+export function floorOf(room: Room): { squareMetres: number; lengthMetres: number; widthMetres: number; assumedSquare: boolean } {
   if (room.floor.kind === 'rectangle') {
     const l = checkRange('floor.lengthMetres', room.floor.lengthMetres, 1e-3, 1000);
     const w = checkRange('floor.widthMetres', room.floor.widthMetres, 1e-3, 1000);
@@ -260,6 +261,13 @@ interface RoomContext {
   occupancyFraction: number;
 }
 
+/**
+ * Most watts one entry, or all the entries of one room, may draw: a bound
+ * against typing errors (count × lamps × watts), far above any real lighting
+ * load (common practice, no published source).
+ */
+const maxLoadWatts = 1e8;
+
 function side(
   count: number,
   wattsPerFixture: number,
@@ -269,6 +277,12 @@ function side(
   volts: number,
 ): SideFigures {
   const watts = count * wattsPerFixture;
+  if (watts > maxLoadWatts) {
+    throw new CalcInputError(
+      'count',
+      `${count} fixtures of ${wattsPerFixture} W draw ${watts} W together, more than the ${maxLoadWatts} W one entry may hold; check the count and the fixture's watts`,
+    );
+  }
   const voltAmperes = apparentPowerVoltAmperes(watts, powerFactor);
   return {
     wattsPerFixture,
@@ -283,22 +297,31 @@ function side(
 }
 
 /** Share of lamp light leaving the existing housing (entry value or typical). */
-function housingEfficiency(entry: FixtureEntry): number {
+export function housingEfficiency(entry: FixtureEntry): number {
   const e = entry.existing;
   return e.luminaireEfficiency !== undefined
     ? checkRange('existing.luminaireEfficiency', e.luminaireEfficiency, 0.1, 1)
     : typicalLuminaireEfficiency[e.technology];
 }
 
-/** Initial lumens leaving one existing fixture: lamps × lamp lumens × ballast factor × housing efficiency. */
-function existingLumensPerFixture(entry: FixtureEntry): number | null {
+/** Initial lumens leaving one existing fixture: lamps × lamp lumens × ballast factor × housing efficiency; null when unknown. */
+export function existingLumensPerFixture(entry: FixtureEntry): number | null {
   const e = entry.existing;
   const bf = e.ballastFactor !== undefined ? checkRange('existing.ballastFactor', e.ballastFactor, 0.3, 1.5) : ballastFactorDefault(e.ballast);
   let lampLumens: number;
   if (e.lumensPerLamp !== undefined) {
     lampLumens = checkRange('existing.lumensPerLamp', e.lumensPerLamp, 0, 1e7);
   } else if (e.technology === 'incandescent' || e.technology === 'halogen') {
-    lampLumens = incandescentEquivalentLumens(e.ratedWattsPerLamp);
+    try {
+      lampLumens = incandescentEquivalentLumens(e.ratedWattsPerLamp);
+    } catch (err) {
+      // Named by the entry's own field, so the user sees which value to change.
+      if (!(err instanceof CalcInputError)) throw err;
+      throw new CalcInputError(
+        'existing.ratedWattsPerLamp',
+        `${err.problem}: the light of an incandescent or halogen lamp is estimated from its watts only up to that; give the lamp's lumens instead`,
+      );
+    }
   } else {
     return null;
   }
@@ -367,7 +390,8 @@ function calculateEntry(survey: Survey, factors: SurveyFactors, ctx: RoomContext
       m,
     );
     const existingLife = e.lampLifeHours !== undefined ? checkRange('existing.lampLifeHours', e.lampLifeHours, 1, 1e6) : typicalLampLifeHours[e.technology];
-    const before = relampCostPerYear(lampsRemoved, ctx.hoursPerYear, existingLife, e.lampPrice ?? 0, m.relampMinutes, m.labourRatePerHour);
+    const lampPrice = e.lampPrice !== undefined ? checkRange('existing.lampPrice', e.lampPrice, 0, 1e7) : 0;
+    const before = relampCostPerYear(lampsRemoved, ctx.hoursPerYear, existingLife, lampPrice, m.relampMinutes, m.labourRatePerHour);
     const after = relampCostPerYear(
       count * p.unitsPerFixture,
       proposedHours,
@@ -580,6 +604,10 @@ function calculateRoom(survey: Survey, factors: SurveyFactors, room: Room, entry
   const proposedLux = proposedLight?.lux ?? null;
   const target = targetLux(room.spaceType);
   const allowance = lpdAllowanceWattsPerSquareMetre(room.spaceType);
+  const roomWatts = Math.max(existingLoads.watts, proposedLoads.watts);
+  if (roomWatts > maxLoadWatts) {
+    throw new CalcInputError('entries', `the fixtures draw ${roomWatts} W together, more than the ${maxLoadWatts} W one room may hold; check their counts and watts`);
+  }
   const existingLpd = lightingPowerDensityWattsPerSquareMetre(existingLoads.watts, floor.squareMetres);
   const proposedLpd = lightingPowerDensityWattsPerSquareMetre(proposedLoads.watts, floor.squareMetres);
   const notes: string[] = [

@@ -114,19 +114,60 @@ export function fromDisplay(quantity: DisplayQuantity, displayValue: number, uni
   }
 }
 
+/** One separator then exactly three digits ("1,500", "2.250"): thousands to some readers, a decimal to others. */
+const ambiguousThousands = /^-?[1-9]\d{0,2}[.,]\d{3}$/;
+/** Digit groups of three after separators ("1,500,000", "1.500,5", "1 500"), with an optional decimal part. */
+const groupedThousands = /^-?[1-9]\d{0,2}(?:([.,' \u00a0\u202f])\d{3})(?:\1\d{3})*(?:[.,]\d+)?$/;
+
+/**
+ * Says why `text` cannot be read without guessing which separator marks
+ * thousands, or returns null when it has no such problem. "1,500" could be
+ * 1500 or 1.5; "1.500,5" and "1,500,000" group thousands.
+ *
+ * @example thousandsProblem('1,500') //=> '"1,500" could be 1500 or 1.5: for 1500, type it with no separator; for 1.5, type 1.5'
+ */
+export function thousandsProblem(text: string): string | null {
+  const trimmed = text.trim().replace(/\u2212/g, '-');
+  if (ambiguousThousands.test(trimmed)) {
+    const whole = trimmed.replace(/[.,]/, '');
+    const decimal = trimmed.replace(',', '.').replace(/0+$/, '').replace(/\.$/, '');
+    return `"${trimmed}" could be ${whole} or ${decimal}: for ${whole}, type it with no separator; for ${decimal}, type ${decimal}`;
+  }
+  const grouped = groupedThousands.exec(trimmed);
+  if (grouped) {
+    const groupSeparator = grouped[1]!;
+    const [whole, fraction] = trimmed.split(groupSeparator).join('').split(/[.,]/);
+    const plain = fraction === undefined ? whole : `${whole}.${fraction}`;
+    return `"${trimmed}" is not a number as written: it groups thousands; write ${plain} without separators`;
+  }
+  return null;
+}
+
 /**
  * Parses a number typed on a phone keyboard: accepts a decimal point or a
  * decimal comma ("1.5", "1,5"), surrounding spaces, and a leading minus.
  * Thousands separators are refused because "1,500" is ambiguous between
- * locales; the caller shows the message next to the field.
+ * locales ({@link thousandsProblem} gives the message); the caller shows the
+ * message next to the field. With `decimalSeparator` (a file that declares
+ * its separator) only that separator is read and nothing is ambiguous.
  *
  * @example parseDecimal('1,5', 'count') //=> 1.5
+ * @example parseDecimal('1,500', 'count') // throws 'count: "1,500" could be 1500 or 1.5: …'
  */
-export function parseDecimal(text: string, field: string): number {
+export function parseDecimal(text: string, field: string, decimalSeparator?: '.' | ','): number {
   const trimmed = text.trim().replace(/\u2212/g, '-');
   if (trimmed === '') throw new CalcInputError(field, 'is empty; enter a number');
-  if (!/^-?(\d+([.,]\d*)?|[.,]\d+)$/.test(trimmed)) {
-    throw new CalcInputError(field, `"${text}" is not a number; use digits with one "." or "," for decimals`);
+  const pattern =
+    decimalSeparator === undefined ? /^-?(\d+([.,]\d*)?|[.,]\d+)$/ : decimalSeparator === '.' ? /^-?(\d+(\.\d*)?|\.\d+)$/ : /^-?(\d+(,\d*)?|,\d+)$/;
+  const separators = decimalSeparator === undefined ? 'one "." or ","' : `one "${decimalSeparator}"`;
+  if (decimalSeparator === undefined) {
+    const thousands = thousandsProblem(text);
+    if (thousands !== null) throw new CalcInputError(field, thousands);
+  }
+  if (!pattern.test(trimmed)) {
+    const thousands = thousandsProblem(text);
+    if (thousands !== null) throw new CalcInputError(field, thousands);
+    throw new CalcInputError(field, `"${text}" is not a number; use digits with ${separators} for decimals`);
   }
   const value = Number(trimmed.replace(',', '.'));
   if (!Number.isFinite(value)) throw new CalcInputError(field, `"${text}" is out of range`);

@@ -13,7 +13,7 @@
  * Every warning about wiring, heat or life safety ends with
  * {@link safetyDeferral}.
  */
-import type { FixtureEntry, Room, UnitsSystem } from '../survey/model.ts';
+import type { FixtureConditions, FixtureEntry, MoistureRating, ProposedProduct, Room, UnitsSystem } from '../survey/model.ts';
 import { displayUnits, toDisplay } from './units.ts';
 
 export type Severity = 'danger' | 'caution' | 'advice';
@@ -83,6 +83,43 @@ export const warningThresholds = {
   illuminanceOverFraction: 1.5,
 } as const;
 
+/** Moisture ratings in order: a product suits a location of the same or a lower rank (dry < damp < wet, the UL 1598 location classes). */
+export const moistureRank: Readonly<Record<MoistureRating, number>> = { dry: 0, damp: 1, wet: 2 };
+
+/** The product ratings a rating rule reads. */
+export type RatedProduct = Pick<ProposedProduct, 'form' | 'dimmable' | 'enclosedRated' | 'moistureRating' | 'insulationContactRated' | 'emergencyListed'>;
+
+/**
+ * The rating rules shared by these warnings, the automatic product choice
+ * (`choice.ts`) and the screens' product fit: each is true when the product
+ * does not suit the fixture's conditions. Every rule is "the fixture needs it
+ * and the product lacks it".
+ *
+ * @example ratingRules.enclosed({ enclosed: true, … }, { enclosedRated: false, … }) //=> true
+ */
+export const ratingRules = {
+  /** Any dimmer (phase-cut, 0-10 V or unknown) on the circuit needs a dimmable product. */
+  dimmer: (c: Pick<FixtureConditions, 'dimmer'>, p: Pick<RatedProduct, 'dimmable'>): boolean => c.dimmer !== 'none' && !p.dimmable,
+  enclosed: (c: Pick<FixtureConditions, 'enclosed'>, p: Pick<RatedProduct, 'enclosedRated'>): boolean => c.enclosed && !p.enclosedRated,
+  moisture: (c: Pick<FixtureConditions, 'location'>, p: Pick<RatedProduct, 'moistureRating'>): boolean =>
+    moistureRank[p.moistureRating] < moistureRank[c.location],
+  emergency: (c: Pick<FixtureConditions, 'emergencyCircuit'>, p: Pick<RatedProduct, 'emergencyListed'>): boolean =>
+    c.emergencyCircuit && !p.emergencyListed,
+  /** A new luminaire touching insulation must be IC-rated (a lamp or kit inherits the existing housing). */
+  insulationLuminaire: (c: Pick<FixtureConditions, 'insulationContact'>, p: Pick<RatedProduct, 'form' | 'insulationContactRated'>): boolean =>
+    c.insulationContact && p.form === 'luminaire' && !p.insulationContactRated,
+} as const;
+
+/**
+ * The least CRI a space needs: {@link warningThresholds}`.colourCriticalMinCri`
+ * where colour rendering matters, `generalMinCri` elsewhere.
+ *
+ * @example minimumCri(true) //=> 90
+ */
+export function minimumCri(colourCritical: boolean): number {
+  return colourCritical ? warningThresholds.colourCriticalMinCri : warningThresholds.generalMinCri;
+}
+
 /** Facts about one entry that the warning rules need, computed by the survey calculation. */
 export interface EntryFacts {
   /** Proposed / existing delivered lumens per fixture, when both are known. */
@@ -137,7 +174,7 @@ export function entryWarnings(room: Pick<Room, 'id' | 'colourCritical'>, entry: 
           'Choose a product with a 0-10 V dimmable driver if the dimming is wanted.',
         ),
       );
-    } else if (c.dimmer !== 'none' && !p.dimmable) {
+    } else if (ratingRules.dimmer(c, p)) {
       out.push(
         make(
           'dimmer-non-dimmable',
@@ -161,7 +198,7 @@ export function entryWarnings(room: Pick<Room, 'id' | 'colourCritical'>, entry: 
       );
     }
 
-    if (c.enclosed && !p.enclosedRated) {
+    if (ratingRules.enclosed(c, p)) {
       out.push(
         make(
           'enclosed-not-rated',
@@ -176,8 +213,7 @@ export function entryWarnings(room: Pick<Room, 'id' | 'colourCritical'>, entry: 
 
     const needs = c.location;
     const has = p.moistureRating;
-    const rank = { dry: 0, damp: 1, wet: 2 } as const;
-    if (rank[has] < rank[needs]) {
+    if (ratingRules.moisture(c, p)) {
       out.push(
         make(
           'moisture-not-rated',
@@ -190,7 +226,7 @@ export function entryWarnings(room: Pick<Room, 'id' | 'colourCritical'>, entry: 
       );
     }
 
-    if (c.emergencyCircuit && !p.emergencyListed) {
+    if (ratingRules.emergency(c, p)) {
       out.push(
         make(
           'emergency-circuit',

@@ -128,3 +128,26 @@ export function readCsv(text: string, delimiter?: CsvFormat['delimiter']): { row
 export function utf8WithBom(text: string): Uint8Array {
   return new TextEncoder().encode(`\uFEFF${text}`);
 }
+
+/**
+ * True when `text` takes more than `limit` bytes as UTF-8, counted without
+ * encoding it (so an oversized text is refused before anything reads it).
+ *
+ * @example utf8BytesOver('é', 1) //=> true
+ */
+export function utf8BytesOver(text: string, limit: number): boolean {
+  if (text.length > limit) return true;
+  if (text.length * 3 <= limit) return false;
+  let bytes = 0;
+  for (let index = 0; index < text.length; index++) {
+    const code = text.charCodeAt(index);
+    if (code < 0x80) bytes += 1;
+    else if (code < 0x800) bytes += 2;
+    else if (code >= 0xd800 && code <= 0xdbff && index + 1 < text.length && (text.charCodeAt(index + 1) & 0xfc00) === 0xdc00) {
+      bytes += 4;
+      index++;
+    } else bytes += 3;
+    if (bytes > limit) return true;
+  }
+  return false;
+}

@@ -31,5 +31,21 @@ export { pdfSafeText } from './text.ts';
 export type * from './types.ts';
 export { clientReport, contractorQuote, fixtureScheduleExporter, orderListCsvExporter, orderListPdfExporter };
 
+export {
+  phaseOrderCsv,
+  phaseOrderLines,
+  phaseOrderPdf,
+  phaseOrdersCsvExporter,
+  phaseOrdersPdfExporter,
+  portfolioSummary,
+  portfolioSummaryPdf,
+  preparePortfolioExport,
+  type PhaseOrderLine,
+} from './portfolio.ts';
+import { phaseOrdersCsvExporter, phaseOrdersPdfExporter, portfolioSummary } from './portfolio.ts';
+
+/** The exporters of a whole portfolio (input: `PortfolioExportInput`, from `preparePortfolioExport`). */
+export const portfolioExporters = [portfolioSummary, phaseOrdersPdfExporter, phaseOrdersCsvExporter] as const;
+
 /** Every exporter, in the order a menu would list them. */
 export const exporters = [clientReport, contractorQuote, orderListPdfExporter, orderListCsvExporter, fixtureScheduleExporter] as const;

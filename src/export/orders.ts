@@ -5,10 +5,11 @@
  * name, watts and lumens.
  */
 import { checkRange } from '../calc/errors.ts';
+import { fixturesAcrossUnits, unitsOf } from '../calc/layout.ts';
 import type { ProductForm, Survey } from '../survey/model.ts';
 import { pause, progressReporter } from './abort.ts';
 import { toCsv, utf8WithBom, type CsvCell } from './csv.ts';
-import { figuresFor } from './figures.ts';
+import { figuresFor, type Figures } from './figures.ts';
 import { colours, fileSlug, paperFor, pdfExporter, PdfWriter, sizes } from './pdf.ts';
 import type { CsvFormat, Exporter, ExportInput, OrderPdfSettings, OrderSettings, ProgressCallback } from './types.ts';
 
@@ -37,7 +38,7 @@ export interface OrderLine {
   unitCostVaries: boolean;
   /** toOrder × unitCost. */
   orderCost: number;
-  /** Rooms the product goes in. */
+  /** Rooms the product goes in (of the surveyed unit, for a repeated layout). */
   rooms: number;
 }
 
@@ -53,17 +54,38 @@ export function spareUnits(needed: number, percent: number): number {
 }
 
 /**
- * The order lines of a survey, sorted by product name.
+ * The sentence that says a document's figures cover every unit of a repeated
+ * layout, or null for a survey without one.
+ *
+ * @example layoutNote({ ...survey, layout: { unitCount: 24, exceptions: [flat3b] } }, fig) //=> 'Figures for all 24 units of this layout (1 differs).'
+ */
+export function layoutNote(survey: Pick<Survey, 'layout'>, fig: Pick<Figures, 'number'>): string | null {
+  if (!survey.layout) return null;
+  const units = unitsOf(survey);
+  const differing = survey.layout.exceptions.length;
+  const differs = differing === 0 ? '' : ` (${fig.number(differing, 0)} ${differing === 1 ? 'differs' : 'differ'})`;
+  return `Figures for all ${fig.number(units, 0)} ${units === 1 ? 'unit' : 'units'} of this layout${differs}.`;
+}
+
+/**
+ * The order lines of a survey, sorted by product name. A survey with a
+ * repeated layout orders each entry's fixtures across all its units
+ * (`fixturesAcrossUnits`). `fixtureCounts`, when given, replaces each entry's
+ * count by entry id (entries it does not list are left out): the phased order
+ * list passes the fixtures across a layout's units of the entries done in one
+ * year.
  *
  * @example orderLines(demoSurvey(), { sparePercent: 10 })[0].toOrder //=> needed + ⌈needed × 10 %⌉
  */
-export function orderLines(survey: Survey, settings: OrderSettings = {}): OrderLine[] {
+export function orderLines(survey: Survey, settings: OrderSettings = {}, fixtureCounts?: ReadonlyMap<string, number>): OrderLine[] {
   const percent = checkRange('sparePercent', settings.sparePercent ?? defaultSparePercent, 0, 100);
   const groups = new Map<string, { line: OrderLine; cost: number; costs: Set<number>; rooms: Set<string> }>();
+  const counts = fixtureCounts ?? (survey.layout ? fixturesAcrossUnits(survey) : undefined);
   for (const room of survey.rooms) {
     for (const entry of room.entries) {
       const p = entry.proposed;
-      if (!p || entry.count === 0) continue;
+      const count = counts ? (counts.get(entry.id) ?? 0) : entry.count;
+      if (!p || count === 0) continue;
       const key = p.catalogId !== undefined ? `catalog:${p.catalogId}` : `custom:${p.name.trim()}|${p.wattsPerUnit}|${p.lumensPerUnit}`;
       let group = groups.get(key);
       if (!group) {
@@ -90,7 +112,7 @@ export function orderLines(survey: Survey, settings: OrderSettings = {}): OrderL
         };
         groups.set(key, group);
       }
-      const units = entry.count * p.unitsPerFixture;
+      const units = count * p.unitsPerFixture;
       group.line.needed += units;
       group.cost += units * p.unitCost;
       group.costs.add(p.unitCost);
@@ -173,10 +195,12 @@ export async function orderListPdf(signal: AbortSignal, input: ExportInput, sett
   const used = w.companyBlock(settings, w.margin.left, 40);
   w.y = Math.max(40 + used, 70) + 16;
   w.heading('Order list');
+  const perLayout = layoutNote(survey, fig);
   w.paragraph(
-    `${survey.name}. Proposed products summed over ${fig.number(survey.rooms.length, 0)} rooms, with ${fig.number(percent, 0)} % spare stock (rounded up to whole units). Prepared ${fig.date(settings.date)}.`,
+    `${survey.name}. Proposed products summed over ${fig.number(survey.rooms.length, 0)} rooms${perLayout ? ' of the surveyed unit and multiplied across the layout' : ''}, with ${fig.number(percent, 0)} % spare stock (rounded up to whole units). Prepared ${fig.date(settings.date)}.`,
     { size: sizes.small },
   );
+  if (perLayout) w.paragraph(perLayout, { size: sizes.small });
   const right = { halign: 'right' as const };
   const total = lines.reduce((sum, l) => sum + l.orderCost, 0);
   w.table({

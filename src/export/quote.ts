@@ -8,10 +8,12 @@
 import { addDays } from 'date-fns';
 import { checkInteger } from '../calc/errors.ts';
 import type { ProjectCost } from '../calc/costs.ts';
+import { calculateLayout } from '../calc/portfolio.ts';
 import type { SurveyResult } from '../calc/survey.ts';
 import type { Survey } from '../survey/model.ts';
 import { pause, progressReporter } from './abort.ts';
 import { figuresFor, type Figures } from './figures.ts';
+import { layoutNote } from './orders.ts';
 import { colours, paperFor, pdfExporter, PdfWriter, sizes } from './pdf.ts';
 import type { Exporter, ExportInput, ProgressCallback, QuoteSettings } from './types.ts';
 
@@ -54,16 +56,19 @@ export interface QuoteTotals {
 /**
  * The quote's lines and totals. With the markup in the prices every line is
  * scaled by (1 + markup), so the lines still add up to the calculation's
- * materials + labour + disposal + markup.
+ * materials + labour + disposal + markup. For a survey with a repeated layout
+ * every line and total covers all its units (`calculateLayout`).
  *
  * @example quoteLines(survey, result, 'in-prices').totals.total === result.totals.money.cost.net //=> true
  */
 export function quoteLines(survey: Survey, result: SurveyResult, markup: 'in-prices' | 'separate-line' = 'in-prices'): { lines: QuoteLine[]; totals: QuoteTotals } {
   const factor = markup === 'in-prices' ? 1 + survey.money.markupFraction : 1;
+  const layout = survey.layout ? calculateLayout(survey, result) : null;
   const lines: QuoteLine[] = [];
   result.rooms.forEach((room, ri) => {
-    room.entries.forEach((e, ei) => {
+    room.entries.forEach((unitEntry, ei) => {
       const product = survey.rooms[ri]?.entries[ei]?.proposed;
+      const e = layout?.entries.get(unitEntry.entryId) ?? unitEntry;
       if (!product || e.count === 0) return;
       const quantity = e.count * product.unitsPerFixture;
       const c = e.money.cost;
@@ -81,7 +86,7 @@ export function quoteLines(survey: Survey, result: SurveyResult, markup: 'in-pri
       });
     });
   });
-  const cost: ProjectCost = result.totals.money.cost;
+  const cost: ProjectCost = (layout?.totals ?? result.totals).money.cost;
   const base = cost.materials + cost.labour + cost.disposal;
   return {
     lines,
@@ -145,6 +150,7 @@ export async function contractorQuotePdf(
   const fig = figuresFor(survey);
   const until = validUntil(settings.date, validDays);
   const { lines, totals } = quoteLines(survey, result, settings.markup ?? 'in-prices');
+  const perLayout = layoutNote(survey, fig);
   const w = new PdfWriter(settings.paper ?? paperFor(survey.locale));
 
   // Letterhead and quote details.
@@ -166,6 +172,12 @@ export async function contractorQuotePdf(
     styles: { fontSize: sizes.body, cellPadding: { top: 2, bottom: 2, left: 0, right: 6 }, lineWidth: 0 },
     columnStyles: { 0: { fontStyle: 'bold', cellWidth: 80, textColor: colours.muted } },
   });
+  if (perLayout) {
+    w.paragraph(
+      `${perLayout} Quantities and prices below cover every unit; the surveyed unit alone comes to ${fig.money(result.totals.money.cost.net)} after estimated rebates.`,
+      { size: sizes.small },
+    );
+  }
   progress(0.1);
   await pause(signal);
 

@@ -5,12 +5,14 @@
  * the cautions. Every figure comes from `SurveyResult` and is written with
  * the survey's {@link Figures}.
  */
+import { calculateLayout, type LayoutResult } from '../calc/portfolio.ts';
 import type { EntryResult, RoomResult, SurveyResult } from '../calc/survey.ts';
 import { safetyDeferral, type Severity, type Warning } from '../calc/warnings.ts';
 import type { ControlChange, Survey } from '../survey/model.ts';
 import { pause, progressReporter } from './abort.ts';
 import { drawCashFlowChart, drawKwhByRoomChart } from './charts.ts';
 import { figuresFor, lightQualitySentence, lightVerdict, type Figures, type LightVerdict } from './figures.ts';
+import { layoutNote } from './orders.ts';
 import { checkImage, colours, paperFor, pdfExporter, PdfWriter, sizes } from './pdf.ts';
 import type { Exporter, ExportInput, ProgressCallback, ReportSettings } from './types.ts';
 import type { CellDef, RowInput } from 'jspdf-autotable';
@@ -99,6 +101,11 @@ export function entryTableColumnStyles(): typeof entryColumnStyles {
   return entryColumnStyles;
 }
 
+/** All-units figures of a survey with a repeated layout, or null without one. */
+function layoutOf(survey: Survey, result: SurveyResult): LayoutResult | null {
+  return survey.layout ? calculateLayout(survey, result) : null;
+}
+
 function cover(w: PdfWriter, survey: Survey, result: SurveyResult, settings: ReportSettings, fig: Figures): void {
   w.companyBlock(settings, w.margin.left, 40);
   let y = 190;
@@ -133,11 +140,12 @@ function cover(w: PdfWriter, survey: Survey, result: SurveyResult, settings: Rep
   const boxY = Math.max(w.y + 24, 470);
   const gap = 12;
   const boxW = (w.width - 2 * gap) / 3;
-  const t = result.totals;
+  const layout = layoutOf(survey, result);
+  const t = layout?.totals ?? result.totals;
   const headline: [string, string][] = [
     ['Energy saved per year', fig.kwh(t.savings.kwhPerYear)],
     ['Money saved per year', fig.moneyWhole(t.money.totalPerYear)],
-    ['Simple payback', fig.payback(result.economics.simplePaybackYears)],
+    ['Simple payback', fig.payback((layout?.economics ?? result.economics).simplePaybackYears)],
   ];
   headline.forEach(([label, value], i) => {
     const x = w.margin.left + i * (boxW + gap);
@@ -149,8 +157,9 @@ function cover(w: PdfWriter, survey: Survey, result: SurveyResult, settings: Rep
     w.textAt(value, x + 10, boxY + 44, { maxWidth: boxW - 20 });
   });
   w.font(sizes.small, 'italic', colours.muted);
+  const perLayout = layoutNote(survey, fig);
   w.textAt(
-    'All figures are estimates from the survey data and published methods; see "Cautions and disclaimer" at the end.',
+    `${perLayout ? `${perLayout} ` : ''}All figures are estimates from the survey data and published methods; see "Cautions and disclaimer" at the end.`,
     w.margin.left,
     boxY + 86,
     { maxWidth: w.width },
@@ -163,32 +172,44 @@ function cover(w: PdfWriter, survey: Survey, result: SurveyResult, settings: Rep
  * @example summaryRows(demo, result, figuresFor(demo))[0] //=> ['Energy saved per year (with HVAC interaction)', '10,637 kWh']
  */
 export function summaryRows(survey: Survey, result: SurveyResult, fig: Figures): [string, string][] {
-  const t = result.totals;
+  // A repeated layout: every figure for all units, the surveyed unit's own in brackets where it differs in kind.
+  const layout = layoutOf(survey, result);
+  const t = layout?.totals ?? result.totals;
   const m = t.money;
-  const e = result.economics;
-  const rows: [string, string][] = [
-    ['Energy saved per year (with HVAC interaction)', fig.kwh(t.savings.kwhPerYear)],
+  const e = layout?.economics ?? result.economics;
+  const u = result.totals;
+  const perUnit = (text: string): string => (layout ? ` (per unit: ${text})` : '');
+  const rows: [string, string][] = [];
+  if (layout) {
+    const differing = layout.differingUnits;
+    rows.push([
+      'Units of this layout',
+      `${fig.number(layout.units, 0)}${differing > 0 ? `, of which ${fig.number(differing, 0)} ${differing === 1 ? 'differs' : 'differ'} from the surveyed unit` : ''}`,
+    ]);
+  }
+  rows.push(
+    ['Energy saved per year (with HVAC interaction)', `${fig.kwh(t.savings.kwhPerYear)}${perUnit(fig.kwh(u.savings.kwhPerYear))}`],
     ['Lighting energy per year, now and after the swap', `${fig.kwh(t.existing.kwhPerYear)} now, ${fig.kwh(t.proposed.kwhPerYear)} after`],
     ['Peak demand reduction (coincident)', fig.kw(t.savings.peakKw)],
     ['Connected load reduction', fig.kw(t.savings.connectedKw)],
-    ['Money saved in the first year', fig.money(m.totalPerYear)],
+    ['Money saved in the first year', `${fig.money(m.totalPerYear)}${perUnit(fig.money(u.money.totalPerYear))}`],
     ['  of which energy, demand, maintenance', `${fig.money(m.energyPerYear)}, ${fig.money(m.demandPerYear)}, ${fig.money(m.maintenancePerYear)}`],
     ['Project cost before rebates', fig.money(m.cost.gross)],
     ['Rebates (estimated)', fig.money(m.cost.rebates)],
-    ['Project cost net of rebates', fig.money(m.cost.net)],
+    ['Project cost net of rebates', `${fig.money(m.cost.net)}${perUnit(fig.money(u.money.cost.net))}`],
     ['Simple payback', fig.payback(e.simplePaybackYears)],
     [
       `Net present value (${survey.money.analysisYears} years at ${fig.percent(survey.money.discountRatePerYear)} real)`,
       fig.money(e.netPresentValue),
     ],
     ['Internal rate of return', fig.irr(e.internalRateOfReturn)],
-    ['CO2 avoided per year', fig.co2(t.co2KgPerYear)],
-  ];
+    ['CO2 avoided per year', `${fig.co2(t.co2KgPerYear)}${perUnit(fig.co2(u.co2KgPerYear))}`],
+  );
   if (t.savings.gasThermsPerYear < 0) {
     rows.push(['Extra heating gas per year (less waste heat from lighting)', `${fig.number(-t.savings.gasThermsPerYear, 0)} therms`]);
   }
   const c = result.warningCounts;
-  rows.push(['Warnings', `${c.danger} danger, ${c.caution} caution, ${c.advice} advice`]);
+  rows.push([layout ? 'Warnings (in the surveyed unit)' : 'Warnings', `${c.danger} danger, ${c.caution} caution, ${c.advice} advice`]);
   return rows;
 }
 
@@ -198,7 +219,8 @@ function summary(w: PdfWriter, survey: Survey, result: SurveyResult, fig: Figure
   const t = result.totals;
   w.paragraph(
     `${survey.site.name || survey.name}: ${fig.number(t.fixtures, 0)} fixtures in ${fig.number(t.rooms, 0)} rooms were surveyed. ` +
-      'The proposal below replaces them room by room; the figures are yearly unless stated.',
+      'The proposal below replaces them room by room; the figures are yearly unless stated.' +
+      (survey.layout ? ` ${layoutNote(survey, fig) ?? ''} The table below covers every unit; the room tables and charts describe the surveyed unit.` : ''),
   );
   w.table({
     body: summaryRows(survey, result, fig),

@@ -36,7 +36,7 @@ import type {
 } from '../survey/model.ts';
 import { fixtureEntrySchema } from '../survey/validate.ts';
 import { pause, progressReporter } from './abort.ts';
-import { csvFormat, readCsv, restoreCell, toCsv, utf8WithBom, type CsvCell } from './csv.ts';
+import { csvFormat, readCsv, restoreCell, toCsv, utf8BytesOver, utf8WithBom, type CsvCell } from './csv.ts';
 import { fileSlug } from './pdf.ts';
 import type { CsvFormat, Exporter, ProgressCallback } from './types.ts';
 
@@ -133,6 +133,8 @@ const inputColumns = {
   proposed_cct_kelvin: { path: 'proposed.cctKelvin', kind: number },
   proposed_cri: { path: 'proposed.cri', kind: number },
   proposed_power_factor: { path: 'proposed.powerFactor', kind: number },
+  proposed_input_volts_min: { path: 'proposed.inputVoltsMin', kind: number, aliases: ['lowest input volts'] },
+  proposed_input_volts_max: { path: 'proposed.inputVoltsMax', kind: number, aliases: ['highest input volts'] },
   proposed_dimmable: { path: 'proposed.dimmable', kind: boolean },
   proposed_enclosed_rated: { path: 'proposed.enclosedRated', kind: boolean },
   proposed_moisture_rating: { path: 'proposed.moistureRating', kind: choice(moisture) },
@@ -308,6 +310,12 @@ export interface SchedulePreview {
   badRows: number;
 }
 
+/** Largest fixture schedule read, in bytes of UTF-8 (20 MB: about 30,000 rows of every column). */
+export const scheduleMaxFileBytes = 20_000_000;
+
+/** Why a schedule over {@link scheduleMaxFileBytes} is refused. */
+export const scheduleTooLargeMessage = `the file is too large: a fixture schedule can be at most ${scheduleMaxFileBytes / 1_000_000} MB; split it into smaller files`;
+
 /** Thrown by {@link commitRows} when the file is rejected; nothing has been written. */
 export class ScheduleImportError extends Error {
   override readonly name = 'ScheduleImportError';
@@ -378,9 +386,12 @@ function parseCell(raw: string, column: ScheduleColumn, decimalSeparator: '.' | 
     case 'number': {
       const other = decimalSeparator === '.' ? ',' : '.';
       if (cell.includes(other)) {
-        throw new CalcInputError(column, `"${raw}" uses "${other}" but the decimal separator for this file is "${decimalSeparator}"`);
+        throw new CalcInputError(
+          column,
+          `"${raw}" uses "${other}" but the decimal separator for this file is "${decimalSeparator}" (write numbers without thousands separators)`,
+        );
       }
-      const value = parseDecimal(cell, column);
+      const value = parseDecimal(cell, column, decimalSeparator);
       if (kind.type === 'integer' && !Number.isInteger(value)) throw new CalcInputError(column, `"${raw}" must be a whole number`);
       return value;
     }
@@ -533,6 +544,11 @@ export async function previewSchedule(
   const { decimalSeparator } = csvFormat(options);
   if (options.defaultCircuitVolts !== undefined && !(options.defaultCircuitVolts >= 12 && options.defaultCircuitVolts <= 1000)) {
     throw new CalcInputError('defaultCircuitVolts', `must be between 12 and 1000 (got ${options.defaultCircuitVolts})`);
+  }
+  if (utf8BytesOver(csvText, scheduleMaxFileBytes)) {
+    // Refused before parsing: nothing of the text is read.
+    progress(1);
+    return { headers: [], mapping: {}, unmappedHeaders: [], rows: [], fileProblems: [scheduleTooLargeMessage], badRows: 0 };
   }
   const parsed = readCsv(csvText, options.delimiter);
   const fileProblems: string[] = [];

@@ -7,8 +7,10 @@
  * Nothing here imports the screens: the app loads this folder with `import()`
  * when the user exports, so jsPDF stays out of the first-load bundle.
  */
+import type { Measure, PhasePlan } from '../calc/phasing.ts';
+import type { PortfolioResult } from '../calc/portfolio.ts';
 import type { SurveyResult } from '../calc/survey.ts';
-import type { Survey } from '../survey/model.ts';
+import type { Portfolio, Survey } from '../survey/model.ts';
 
 /** The exporters this folder provides. */
 export type ExporterId = 'client-report' | 'contractor-quote' | 'order-list-csv' | 'order-list-pdf' | 'fixture-schedule-csv';
@@ -122,4 +124,45 @@ export interface CsvFormat {
   delimiter?: ',' | ';' | '\t';
   /** Decimal separator written in and expected from number cells (default `.`). */
   decimalSeparator?: '.' | ',';
+}
+
+/** The exporters of a whole portfolio (`portfolio.ts`). */
+export type PortfolioExporterId = 'portfolio-summary' | 'phase-orders-csv' | 'phase-orders-pdf';
+
+/**
+ * What the portfolio exporters work from: the portfolio, its surveys, their
+ * roll-up, the measures and the phased plan. `preparePortfolioExport` in
+ * `portfolio.ts` makes one from a portfolio and its surveys.
+ */
+export interface PortfolioExportInput {
+  portfolio: Portfolio;
+  /** The portfolio's surveys, in `portfolio.surveyIds` order. */
+  surveys: Survey[];
+  /** `calculatePortfolio(portfolio, surveys)`. */
+  result: PortfolioResult;
+  /** `measuresFromSurveys(surveys)`. */
+  measures: Measure[];
+  /** `planPhases(measures, settings)`. */
+  plan: PhasePlan;
+}
+
+/** Like {@link Exporter}, for a whole portfolio. */
+export interface PortfolioExporter<Options> {
+  id: PortfolioExporterId;
+  label: string;
+  mimeType: string;
+  extension: string;
+  run(signal: AbortSignal, input: PortfolioExportInput, options: Options, onProgress?: ProgressCallback): Promise<ExportedFile>;
+}
+
+/** Settings for the portfolio summary PDF. */
+export interface PortfolioSummarySettings extends CompanySettings {
+  date: Date;
+  /** Who prepared the summary; printed under the title when given. */
+  preparedBy?: string;
+}
+
+/** Settings for the order list by phase PDF. */
+export interface PhaseOrderPdfSettings extends OrderSettings, CompanySettings {
+  date: Date;
 }

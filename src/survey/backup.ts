@@ -10,7 +10,7 @@
 import { lightFormat } from 'date-fns';
 import { addAll, settingsKey, tracked, type Connection, type StoredSettings, type WriteTx } from './db.ts';
 import { makeSurveyFile, type SurveyFile } from './format.ts';
-import type { CatalogProduct, FixtureEntry, Photo, StoredEntry, StoredRoom, Survey, SurveyHeader } from './model.ts';
+import type { CatalogProduct, FixtureEntry, Photo, Portfolio, StoredEntry, StoredRoom, Survey, SurveyHeader } from './model.ts';
 import { photoFromFile, photoToFile } from './photos.ts';
 import { assembleSurvey, splitSurvey } from './records.ts';
 import { StoreError } from './store-error.ts';
@@ -19,6 +19,22 @@ import { maxTextLength, parseSurveyFileText, type FileProblem } from './validate
 
 /** Largest backup the app restores, in bytes of UTF-8 (photos make backups large; the command line keeps its 50 MB limit). */
 export const backupMaxFileBytes = 500_000_000;
+
+/**
+ * Refuses a backup file of `bytes` bytes over {@link backupMaxFileBytes}
+ * before it is read (the screens pass `File.size`); the text check in
+ * `parseSurveyFileText` catches the rest.
+ *
+ * @example checkBackupSize(600_000_000) // throws invalid-file: "… over the 500 MB limit …"
+ */
+export function checkBackupSize(bytes: number): void {
+  if (bytes > backupMaxFileBytes) {
+    const problems: FileProblem[] = [
+      { path: '(file)', message: `is too large: over the ${backupMaxFileBytes / 1_000_000} MB limit for a backup file (${backupMaxFileBytes} bytes)` },
+    ];
+    throw new StoreError('invalid-file', problemsMessage(problems), problems);
+  }
+}
 
 /** Problems listed in an `invalid-file` message before "and N more". */
 const problemsInMessage = 5;
@@ -49,6 +65,10 @@ export interface ImportPreview {
   /** Catalog products stored under the same id with different details. */
   catalogDiffering: number;
   photos: number;
+  /** Portfolios in the file. */
+  portfolios: number;
+  /** Of those, how many are stored under the same id. */
+  portfoliosAlreadyStored: number;
   /** True when importing needs a choice ("as a copy" or "replace"). */
   needsChoice: boolean;
 }
@@ -64,6 +84,8 @@ export interface ImportReport {
   catalogReplaced: number;
   /** Trash items holding the stored surveys a "replace" import pushed aside. */
   trashItemIds: string[];
+  /** Ids of the portfolios written (new ids when imported as a copy), in file order. */
+  portfolioIds: string[];
 }
 
 function problemsMessage(problems: readonly FileProblem[]): string {
@@ -118,12 +140,12 @@ export async function exportBackup(
   now: Date,
 ): Promise<BackupFile & { editsCounted: number }> {
   const read = await connection.read(
-    ['surveys', 'rooms', 'entries', 'catalog', 'photos', 'thumbnails', 'settings'],
+    ['surveys', 'rooms', 'entries', 'catalog', 'photos', 'thumbnails', 'settings', 'portfolios'],
     'read the data for the backup',
     async (tx) => {
       const settings = tracked(tx.objectStore('settings').get('app'));
       if (which === 'all') {
-        const [surveys, rooms, entries, catalog, images, thumbs, stored] = await Promise.all([
+        const [surveys, rooms, entries, catalog, images, thumbs, stored, portfolios] = await Promise.all([
           tracked(tx.objectStore('surveys').getAll()),
           tracked(tx.objectStore('rooms').getAll()),
           tracked(tx.objectStore('entries').getAll()),
@@ -131,8 +153,9 @@ export async function exportBackup(
           tracked(tx.objectStore('photos').getAll()),
           tracked(tx.objectStore('thumbnails').getAll()),
           settings,
+          tracked(tx.objectStore('portfolios').getAll()),
         ]);
-        return { surveys, rooms, entries, catalog, images, thumbs, edits: stored?.editsSinceBackup ?? 0 };
+        return { surveys, rooms, entries, catalog, images, thumbs, edits: stored?.editsSinceBackup ?? 0, portfolios };
       }
       const parts = await surveyParts(tx, which.surveyId);
       const catalogIds = [...new Set(parts.entries.flatMap((entry) => (entry.proposed?.catalogId ? [entry.proposed.catalogId] : [])))];
@@ -146,6 +169,8 @@ export async function exportBackup(
         images: photos.map((photo) => photo.image),
         thumbs: photos.map((photo) => photo.thumbnail),
         edits: (await settings)?.editsSinceBackup ?? 0,
+        // A one-survey file carries no portfolio: a portfolio groups surveys of one device or backup.
+        portfolios: [] as Portfolio[],
       };
     },
   );
@@ -154,7 +179,8 @@ export async function exportBackup(
   const thumbsById = new Map(read.thumbs.map((thumb) => [thumb.id, thumb]));
   const photos = read.images.map((image) => joinPhoto(image, thumbsById.get(image.id))).sort(byCreated);
   const filePhotos = await Promise.all(photos.map((photo) => photoToFile(photo)));
-  const file = makeSurveyFile(surveys, read.catalog, now, filePhotos);
+  const portfolios = [...read.portfolios].sort(byCreated);
+  const file = makeSurveyFile(surveys, read.catalog, now, filePhotos, portfolios);
   const label = which === 'all' ? 'backup' : (surveys[0]?.name ?? 'survey');
   return { file, text: JSON.stringify(file), fileName: fileNameFor(label, now), editsCounted: read.edits };
 }
@@ -211,17 +237,20 @@ export async function previewImport(connection: Connection, text: string): Promi
       for (const entry of room.entries) ids.add(entry.id);
     }
   }
-  const found = await connection.read(['surveys', 'rooms', 'entries', 'photos', 'catalog'], 'check the backup against the saved data', async (tx) => {
-    const [surveyKeys, roomKeys, entryKeys, photoKeys, products] = await Promise.all([
+  const found = await connection.read(['surveys', 'rooms', 'entries', 'photos', 'catalog', 'portfolios'], 'check the backup against the saved data', async (tx) => {
+    const [surveyKeys, roomKeys, entryKeys, photoKeys, products, portfolioKeys] = await Promise.all([
       tracked(tx.objectStore('surveys').getAllKeys()),
       tracked(tx.objectStore('rooms').getAllKeys()),
       tracked(tx.objectStore('entries').getAllKeys()),
       tracked(tx.objectStore('photos').getAllKeys()),
       Promise.all(file.catalog.map((product) => tracked(tx.objectStore('catalog').get(product.id)))),
+      tracked(tx.objectStore('portfolios').getAllKeys()),
     ]);
-    return { stored: new Set([...surveyKeys, ...roomKeys, ...entryKeys]), photoKeys: new Set(photoKeys), surveyKeys: new Set(surveyKeys), products };
+    return { stored: new Set([...surveyKeys, ...roomKeys, ...entryKeys]), photoKeys: new Set(photoKeys), surveyKeys: new Set(surveyKeys), products, portfolioKeys: new Set(portfolioKeys) };
   });
-  const clashing = [...ids].some((id) => found.stored.has(id)) || file.photos.some((photo) => found.photoKeys.has(photo.id));
+  const portfoliosAlreadyStored = file.portfolios.filter((portfolio) => found.portfolioKeys.has(portfolio.id)).length;
+  const clashing =
+    [...ids].some((id) => found.stored.has(id)) || file.photos.some((photo) => found.photoKeys.has(photo.id)) || portfoliosAlreadyStored > 0;
   const catalogDiffering = file.catalog.filter((product, index) => {
     const stored = found.products[index];
     return stored !== undefined && !sameData(stored, product);
@@ -241,12 +270,18 @@ export async function previewImport(connection: Connection, text: string): Promi
     catalogProducts: file.catalog.length,
     catalogDiffering,
     photos: file.photos.length,
+    portfolios: file.portfolios.length,
+    portfoliosAlreadyStored,
     needsChoice: clashing || catalogDiffering > 0,
   };
 }
 
-/** The file with every survey, room, entry and photo under a new id (the links between them kept). */
-function asCopy(surveys: Survey[], photos: Photo[]): { surveys: Survey[]; photos: Photo[] } {
+/**
+ * The file with every survey, room, entry, photo and portfolio under a new id
+ * (the links between them kept: photos, layout counts and portfolio members
+ * follow their new ids).
+ */
+function asCopy(surveys: Survey[], photos: Photo[], portfolios: Portfolio[]): { surveys: Survey[]; photos: Photo[]; portfolios: Portfolio[] } {
   const newIds = new Map<string, string>();
   const fresh = (id: string): string => {
     const made = crypto.randomUUID();
@@ -268,7 +303,22 @@ function asCopy(surveys: Survey[], photos: Photo[]): { surveys: Survey[]; photos
     surveyId: newIds.get(photo.surveyId) ?? photo.surveyId,
     ownerId: newIds.get(photo.ownerId) ?? photo.ownerId,
   }));
-  return { surveys: copied, photos: copiedPhotos };
+  for (const survey of copied) {
+    if (!survey.layout) continue;
+    survey.layout = {
+      ...survey.layout,
+      exceptions: survey.layout.exceptions.map((unit) => ({
+        ...unit,
+        entryCounts: unit.entryCounts.map((item) => ({ ...item, entryId: newIds.get(item.entryId) ?? item.entryId })),
+      })),
+    };
+  }
+  const copiedPortfolios = portfolios.map((portfolio) => ({
+    ...portfolio,
+    id: crypto.randomUUID(),
+    surveyIds: portfolio.surveyIds.map((id) => newIds.get(id) ?? id),
+  }));
+  return { surveys: copied, photos: copiedPhotos, portfolios: copiedPortfolios };
 }
 
 /** Why an import was refused because of ids already stored (`names`: the surveys or products concerned, when known). */
@@ -298,21 +348,33 @@ export async function importBackup(
   const file = readBackupText(text);
   let surveys = file.surveys;
   let photos = file.photos.map((photo) => photoFromFile(photo));
+  let portfolios = file.portfolios;
   const clashNames = new Map<string, string>();
-  if (choice === 'copy') ({ surveys, photos } = asCopy(surveys, photos));
+  if (choice === 'copy') ({ surveys, photos, portfolios } = asCopy(surveys, photos, portfolios));
   const records = surveys.map((survey) => splitSurvey(survey));
 
   return connection.write(
-    ['surveys', 'rooms', 'entries', 'catalog', 'photos', 'thumbnails', 'trash', 'settings'],
+    ['surveys', 'rooms', 'entries', 'catalog', 'photos', 'thumbnails', 'trash', 'settings', 'portfolios'],
     'restore the backup',
     async (tx: WriteTx) => {
       const surveyStore = tx.objectStore('surveys');
       const catalogStore = tx.objectStore('catalog');
-      const [storedHeaders, storedProducts, settings] = await Promise.all([
+      const portfolioStore = tx.objectStore('portfolios');
+      const [storedHeaders, storedProducts, settings, storedPortfolios] = await Promise.all([
         Promise.all(file.surveys.map((survey) => tracked(surveyStore.get(survey.id)))),
         Promise.all(file.catalog.map((product) => tracked(catalogStore.get(product.id)))),
         tracked(tx.objectStore('settings').get(settingsKey)),
+        Promise.all(file.portfolios.map((portfolio) => tracked(portfolioStore.get(portfolio.id)))),
       ]);
+      // Portfolios clash like surveys: refused, copied under a new id (named "(copy)"), or
+      // replaced. A replaced portfolio is overwritten, not trashed (the trash holds survey records only).
+      const portfolioClashes: string[] = [];
+      const portfolioWrites = portfolios.map((portfolio, index) => {
+        const stored = storedPortfolios[index];
+        if (!stored) return portfolio;
+        portfolioClashes.push(stored.name);
+        return choice === 'copy' ? { ...portfolio, name: `${portfolio.name.slice(0, maxTextLength - 7)} (copy)` } : portfolio;
+      });
       storedHeaders.forEach((header, index) => {
         if (!header) return;
         clashNames.set(header.id, header.name);
@@ -344,8 +406,8 @@ export async function importBackup(
           } else differing.push(product.name);
         }
       });
-      if (choice === 'refuse' && (clashNames.size > 0 || differing.length > 0)) {
-        throw new StoreError('conflict', conflictMessage([...clashNames.values(), ...differing]));
+      if (choice === 'refuse' && (clashNames.size > 0 || differing.length > 0 || portfolioClashes.length > 0)) {
+        throw new StoreError('conflict', conflictMessage([...clashNames.values(), ...portfolioClashes, ...differing]));
       }
 
       // Replace: push the stored surveys aside into the trash (one item each, restorable).
@@ -362,6 +424,7 @@ export async function importBackup(
       const requests: Promise<unknown>[] = [];
       if (!settings) requests.push(tracked(tx.objectStore('settings').add(settingsIfMissing)));
       for (const product of catalogWrites) requests.push(tracked(catalogStore.put(product)));
+      for (const portfolio of portfolioWrites) requests.push(tracked(portfolioStore.put(portfolio)));
       await Promise.all(requests);
       // Thousands of records: added without a promise each. Any failure (an id
       // already stored, a full disk) aborts the transaction, so nothing is kept.
@@ -401,6 +464,7 @@ export async function importBackup(
         catalogAdded,
         catalogReplaced,
         trashItemIds,
+        portfolioIds: portfolioWrites.map((portfolio) => portfolio.id),
       };
       return { report, persistenceRecorded: (settings ?? settingsIfMissing).persistence !== null };
     },

@@ -14,6 +14,7 @@ import type {
   CatalogProduct,
   Photo,
   PhotoThumbnail,
+  Portfolio,
   StoredEntry,
   StoredRoom,
   SurveyHeader,
@@ -45,6 +46,7 @@ export interface LampwalkDB extends DBSchema {
   thumbnails: { key: string; value: PhotoThumbnail; indexes: { byOwner: string; bySurvey: string } };
   trash: { key: string; value: TrashItem; indexes: { byDeletedAt: string } };
   settings: { key: string; value: StoredSettings };
+  portfolios: { key: string; value: Portfolio };
 }
 
 /** Names of the stores. */
@@ -60,6 +62,7 @@ export const allStores = [
   'thumbnails',
   'trash',
   'settings',
+  'portfolios',
 ] as const satisfies readonly StoreName[];
 
 /**
@@ -98,6 +101,11 @@ export const lampwalkMigrations: readonly Migration[] = [
     const trash = database.createObjectStore('trash', { keyPath: 'id' });
     trash.createIndex('byDeletedAt', 'deletedAt');
     database.createObjectStore('settings', { keyPath: 'key' });
+  },
+  // Version 2: portfolios (groups of surveys planned together). Surveys gain
+  // an optional `layout` field in their own records, which needs no step.
+  (database) => {
+    database.createObjectStore('portfolios', { keyPath: 'id' });
   },
 ];
 

@@ -7,7 +7,7 @@
  * magnetic-ballast fluorescent basement and a metered fixture.
  */
 import { exampleCatalog, proposalFromCatalog } from './examples.ts';
-import type { CatalogProduct, ExistingEquipment, FixtureConditions, FixtureEntry, ProposedProduct, Survey } from './model.ts';
+import type { CatalogProduct, ExistingEquipment, FixtureConditions, FixtureEntry, Portfolio, ProposedProduct, Survey } from './model.ts';
 
 function product(id: string): CatalogProduct {
   const found = exampleCatalog.find((p) => p.id === id);
@@ -257,5 +257,362 @@ export function demoSurvey(): Survey {
         ],
       },
     ],
+  };
+}
+
+// ---------------------------------------------------------------------------
+// The landlord scenario: the same invented housing cooperative owns two more
+// buildings, surveyed as repeated layouts (one typical unit standing for
+// many), and plans the swap across all of them under a yearly budget.
+
+/** When the layouts were walked (a week before the corner building). */
+const layoutStamp = '2026-11-11T10:00:00.000Z';
+
+/** Client of every demo survey and of the demo portfolio. */
+const demoClient = { name: 'Fernhollow Housing Cooperative (invented)', contact: 'Asset manager' };
+
+/** Money assumptions shared by the cooperative's surveys: the corner building's (one currency, one plan). */
+function demoMoney(): Survey['money'] {
+  return { ...demoSurvey().money };
+}
+
+/** A survey of one layout with the cooperative's defaults. */
+function layoutSurvey(fields: Pick<Survey, 'id' | 'name' | 'site' | 'notes' | 'rooms'> & Partial<Pick<Survey, 'layout'>>): Survey {
+  return {
+    client: { ...demoClient },
+    preparedBy: 'Demo auditor',
+    buildingType: 'multifamily',
+    heatingType: 'fossil',
+    cooled: false,
+    units: 'imperial',
+    locale: 'en-US',
+    money: demoMoney(),
+    savings: {},
+    grid: { kind: 'egrid', subregion: 'RFCE' },
+    createdAt: layoutStamp,
+    updatedAt: layoutStamp,
+    ...fields,
+  };
+}
+
+/** Ids of the fixture entries of the one-bedroom flat layout (the differing units name them). */
+export const demoFlatEntryIds = {
+  hall: 'demo-wf-hall-ceiling',
+  kitchen: 'demo-wf-kitchen-cans',
+  bathroom: 'demo-wf-bath-ceiling',
+  living: 'demo-wf-living-pendants',
+  bedroom: 'demo-wf-bedroom-pendant',
+} as const;
+
+/**
+ * The typical one-bedroom flat of Wrenfold Court: 24 flats of one layout.
+ * Flat 7 was converted by its tenant already (every count 0); flat 19 has a
+ * second bedroom pendant.
+ */
+function wrenfoldFlat(): Survey {
+  const ids = demoFlatEntryIds;
+  return layoutSurvey({
+    id: 'demo-wrenfold-flat',
+    name: 'Wrenfold Court — one-bedroom flat, typical (demo)',
+    site: { name: 'Wrenfold Court', address: '2–48 Quillby Lane, Fernhollow (invented address)' },
+    notes: 'Flat 12 walked as the typical unit with the caretaker; the others were checked from the door. Lamps are tenant-replaced as they fail.',
+    layout: {
+      unitCount: 24,
+      exceptions: [
+        {
+          id: 'demo-wf-flat-7',
+          unitLabel: 'Flat 7',
+          entryCounts: Object.values(ids).map((entryId) => ({ entryId, count: 0 })),
+          notes: 'Tenant fitted LED lamps throughout last year: nothing to change.',
+        },
+        {
+          id: 'demo-wf-flat-19',
+          unitLabel: 'Flat 19',
+          entryCounts: [{ entryId: ids.bedroom, count: 2 }],
+          notes: 'A second ceiling pendant over the bed.',
+        },
+      ],
+    },
+    rooms: [
+      {
+        id: 'demo-wf-hall',
+        name: 'Hall',
+        spaceType: 'dwelling-unit',
+        floor: { kind: 'rectangle', lengthMetres: 3.2, widthMetres: 1.1 },
+        ceilingHeightMetres: 2.4,
+        workPlaneHeightMetres: 0,
+        hours: { kind: 'annual', hoursPerYear: 1000 },
+        colourCritical: false,
+        photometry: {},
+        notes: '',
+        entries: [
+          entry(ids.hall, {
+            count: 1,
+            existing: existing({ technology: 'incandescent', description: 'Flush glass ceiling fitting, 60 W A-lamp', ratedWattsPerLamp: 60, lampPrice: 1.2 }),
+            conditions: { ...dry120, enclosed: true },
+            proposed: proposalFromCatalog(product('example-a19-dim-enclosed')),
+          }),
+        ],
+      },
+      {
+        id: 'demo-wf-kitchen',
+        name: 'Kitchen',
+        spaceType: 'dwelling-unit',
+        floor: { kind: 'rectangle', lengthMetres: 3.0, widthMetres: 2.4 },
+        ceilingHeightMetres: 2.4,
+        workPlaneHeightMetres: 0.9,
+        hours: { kind: 'annual', hoursPerYear: 1500 },
+        colourCritical: false,
+        photometry: {},
+        notes: 'Recessed cans in a plasterboard ceiling; the flat above, no insulation.',
+        entries: [
+          entry(ids.kitchen, {
+            count: 3,
+            existing: existing({ technology: 'incandescent', description: 'Recessed can, 65 W BR30', ratedWattsPerLamp: 65, lumensPerLamp: 650, lampPrice: 4 }),
+            conditions: { ...dry120 },
+            proposed: proposalFromCatalog(product('example-downlight-ic')),
+          }),
+        ],
+      },
+      {
+        id: 'demo-wf-bath',
+        name: 'Bathroom',
+        spaceType: 'dwelling-unit',
+        floor: { kind: 'rectangle', lengthMetres: 2.2, widthMetres: 1.8 },
+        ceilingHeightMetres: 2.4,
+        workPlaneHeightMetres: 0.76,
+        hours: { kind: 'annual', hoursPerYear: 700 },
+        colourCritical: false,
+        photometry: {},
+        notes: 'No extract fan; condensation on the ceiling.',
+        entries: [
+          entry(ids.bathroom, {
+            count: 1,
+            existing: existing({
+              technology: 'incandescent',
+              description: 'Enclosed glass ceiling fitting, 2 × 40 W',
+              lampsPerFixture: 2,
+              ratedWattsPerLamp: 40,
+              lampPrice: 1.2,
+            }),
+            conditions: { ...dry120, enclosed: true, location: 'damp' },
+            proposed: { ...proposalFromCatalog(product('example-a19-dim-enclosed')), unitsPerFixture: 2 },
+          }),
+        ],
+      },
+      {
+        id: 'demo-wf-living',
+        name: 'Living room',
+        spaceType: 'dwelling-unit',
+        floor: { kind: 'rectangle', lengthMetres: 4.6, widthMetres: 3.6 },
+        ceilingHeightMetres: 2.4,
+        workPlaneHeightMetres: 0.76,
+        hours: { kind: 'weekly', days: [5, 5, 5, 5, 6, 7, 7] },
+        colourCritical: false,
+        photometry: {},
+        notes: 'Two pendants on a rotary dimmer by the door.',
+        entries: [
+          entry(ids.living, {
+            count: 2,
+            existing: existing({ technology: 'incandescent', description: 'Pendant, 75 W A-lamp', ratedWattsPerLamp: 75, lampPrice: 1.3 }),
+            conditions: { ...dry120, dimmer: 'leading-edge' },
+            proposed: proposalFromCatalog(product('example-a19-dim-enclosed')),
+          }),
+        ],
+      },
+      {
+        id: 'demo-wf-bedroom',
+        name: 'Bedroom',
+        spaceType: 'dwelling-unit',
+        floor: { kind: 'rectangle', lengthMetres: 3.6, widthMetres: 3.2 },
+        ceilingHeightMetres: 2.4,
+        workPlaneHeightMetres: 0.76,
+        hours: { kind: 'annual', hoursPerYear: 600 },
+        colourCritical: false,
+        photometry: {},
+        notes: '',
+        entries: [
+          entry(ids.bedroom, {
+            count: 1,
+            existing: existing({ technology: 'incandescent', description: 'Pendant, 60 W A-lamp', ratedWattsPerLamp: 60, lampPrice: 1.2 }),
+            conditions: { ...dry120 },
+            proposed: proposalFromCatalog(product('example-a19-basic')),
+          }),
+        ],
+      },
+    ],
+  });
+}
+
+/** Wrenfold Court's common parts: two identical stair cores, each with its corridors. */
+function wrenfoldCommon(): Survey {
+  return layoutSurvey({
+    id: 'demo-wrenfold-common',
+    name: 'Wrenfold Court — stair core and corridors (demo)',
+    site: { name: 'Wrenfold Court', address: '2–48 Quillby Lane, Fernhollow (invented address)' },
+    notes: 'Stair A walked; stair B is built and lit the same way. Lit around the clock.',
+    layout: { unitCount: 2, exceptions: [] },
+    rooms: [
+      {
+        id: 'demo-wfc-corridors',
+        name: 'Corridors, floors 1–4',
+        spaceType: 'corridor',
+        floor: { kind: 'area', squareMetres: 96 },
+        ceilingHeightMetres: 2.6,
+        workPlaneHeightMetres: 0,
+        hours: { kind: 'annual', hoursPerYear: 8760 },
+        colourCritical: false,
+        photometry: {},
+        notes: 'Surface wraparounds, two per floor.',
+        entries: [
+          entry('demo-wfc-wraps', {
+            count: 8,
+            existing: existing({
+              technology: 'linear-t8',
+              description: 'Surface wraparound, 2-lamp F32T8',
+              lampsPerFixture: 2,
+              ratedWattsPerLamp: 32,
+              lumensPerLamp: 2800,
+              ballast: 'electronic',
+              lampPrice: 3.2,
+            }),
+            conditions: { ...dry120, circuitLabel: 'Landlord panel / 4', breakerAmps: 15 },
+            proposed: proposalFromCatalog(product('example-t8-typea')),
+            control: 'occupancy-sensor',
+          }),
+        ],
+      },
+      {
+        id: 'demo-wfc-stair',
+        name: 'Stair and landings',
+        spaceType: 'stairwell',
+        floor: { kind: 'area', squareMetres: 40 },
+        ceilingHeightMetres: 2.7,
+        workPlaneHeightMetres: 0,
+        hours: { kind: 'annual', hoursPerYear: 8760 },
+        colourCritical: false,
+        photometry: {},
+        notes: 'Landing bulkheads are on the emergency circuit, with battery packs.',
+        entries: [
+          entry('demo-wfc-bulkheads', {
+            count: 5,
+            existing: existing({
+              technology: 'cfl-pin',
+              description: 'Enclosed bulkhead, 26 W CFL, emergency pack',
+              ratedWattsPerLamp: 26,
+              lumensPerLamp: 1710,
+              ballast: 'electronic',
+              lampPrice: 4.5,
+            }),
+            conditions: { ...dry120, enclosed: true, emergencyCircuit: true, circuitLabel: 'Landlord panel / 6 (emergency)', breakerAmps: 15 },
+            proposed: {
+              ...customFrom('example-vapourtight'),
+              name: 'Bulkhead LED 12 W 1,300 lm 4000 K, integral emergency driver',
+              wattsPerUnit: 12,
+              lumensPerUnit: 1300,
+              unitCost: 74,
+              installMinutesPerFixture: 40,
+              rebatePerFixture: 8,
+              moistureRating: 'damp',
+              emergencyListed: true,
+            },
+          }),
+        ],
+      },
+    ],
+  });
+}
+
+/** Harrowgate Terrace: eight studio flats of one layout, none differing. */
+function harrowgateStudio(): Survey {
+  return layoutSurvey({
+    id: 'demo-harrowgate-studio',
+    name: 'Harrowgate Terrace — studio flat, typical (demo)',
+    site: { name: 'Harrowgate Terrace', address: '1–8 Mossbrook Yard, Fernhollow (invented address)' },
+    notes: 'Studio 3 walked as the typical unit.',
+    layout: { unitCount: 8, exceptions: [] },
+    rooms: [
+      {
+        id: 'demo-hg-main',
+        name: 'Main room and kitchenette',
+        spaceType: 'dwelling-unit',
+        floor: { kind: 'rectangle', lengthMetres: 5.4, widthMetres: 3.8 },
+        ceilingHeightMetres: 2.5,
+        workPlaneHeightMetres: 0.76,
+        hours: { kind: 'annual', hoursPerYear: 2000 },
+        colourCritical: false,
+        photometry: {},
+        notes: 'Fluorescent batten over the kitchenette, a pendant in the room.',
+        entries: [
+          entry('demo-hg-batten', {
+            count: 1,
+            existing: existing({
+              technology: 'linear-t12',
+              description: 'Batten, 1-lamp F40T12, magnetic ballast',
+              ratedWattsPerLamp: 40,
+              lumensPerLamp: 2650,
+              ballast: 'magnetic',
+              fixtureInputWatts: 50,
+              lampPrice: 3,
+            }),
+            conditions: { ...dry120 },
+            proposed: proposalFromCatalog(product('example-t8-typeb')),
+          }),
+          entry('demo-hg-pendant', {
+            count: 1,
+            existing: existing({ technology: 'cfl-screw', description: 'Pendant, 20 W spiral CFL', ratedWattsPerLamp: 20, lumensPerLamp: 1200, ballast: 'electronic', lampPrice: 3 }),
+            conditions: { ...dry120 },
+            proposed: proposalFromCatalog(product('example-a19-basic')),
+          }),
+        ],
+      },
+      {
+        id: 'demo-hg-shower',
+        name: 'Shower room',
+        spaceType: 'dwelling-unit',
+        floor: { kind: 'rectangle', lengthMetres: 2.0, widthMetres: 1.6 },
+        ceilingHeightMetres: 2.4,
+        workPlaneHeightMetres: 0.76,
+        hours: { kind: 'annual', hoursPerYear: 700 },
+        colourCritical: false,
+        photometry: {},
+        notes: '',
+        entries: [
+          entry('demo-hg-shower-ceiling', {
+            count: 1,
+            existing: existing({ technology: 'incandescent', description: 'Enclosed glass ceiling fitting, 60 W', ratedWattsPerLamp: 60, lampPrice: 1.2 }),
+            conditions: { ...dry120, enclosed: true, location: 'damp' },
+            proposed: proposalFromCatalog(product('example-a19-dim-enclosed')),
+          }),
+        ],
+      },
+    ],
+  });
+}
+
+/**
+ * Fresh copies of the landlord scenario's layout surveys: Wrenfold Court's
+ * one-bedroom flat (24 flats, two differing), its stair cores (2) and
+ * Harrowgate Terrace's studio flat (8).
+ */
+export function demoLandlordSurveys(): Survey[] {
+  return [wrenfoldFlat(), wrenfoldCommon(), harrowgateStudio()];
+}
+
+/**
+ * The demo portfolio: the cooperative's three buildings (the corner building
+ * and the layouts above), planned over three years under a yearly budget
+ * smaller than the whole swap, so the plan defers some measures.
+ */
+export function demoPortfolio(): Portfolio {
+  return {
+    id: 'demo-fernhollow-estate',
+    name: 'Fernhollow estate — LED swap (demo)',
+    client: { ...demoClient },
+    surveyIds: [demoSurvey().id, ...demoLandlordSurveys().map((survey) => survey.id)],
+    plan: { budgetPerYear: 2500, years: 3 },
+    notes: 'Invented example: three buildings of one landlord, the work spread over three years.',
+    createdAt: layoutStamp,
+    updatedAt: layoutStamp,
   };
 }

@@ -1,9 +1,11 @@
 /**
  * Example catalog products, seeded on first run and used by the demo survey.
  * They are generic, invented products (no brands, invented prices), marked
- * `example: true` so the screens can label them as such.
+ * `example: true` so the screens can label them as such. Input voltage
+ * ranges are invented too; the Type A tube has none, as it runs on the
+ * fixture's ballast.
  */
-import type { CatalogProduct, ProposedProduct } from './model.ts';
+import type { CatalogProduct } from './model.ts';
 
 export const exampleCatalog: readonly CatalogProduct[] = [
   {
@@ -18,6 +20,8 @@ export const exampleCatalog: readonly CatalogProduct[] = [
     cctKelvin: 2700,
     cri: 80,
     powerFactor: 0.55,
+    inputVoltsMin: 120,
+    inputVoltsMax: 120,
     dimmable: false,
     enclosedRated: false,
     moistureRating: 'damp',
@@ -43,6 +47,8 @@ export const exampleCatalog: readonly CatalogProduct[] = [
     cctKelvin: 2700,
     cri: 90,
     powerFactor: 0.9,
+    inputVoltsMin: 120,
+    inputVoltsMax: 120,
     dimmable: true,
     enclosedRated: true,
     moistureRating: 'damp',
@@ -68,6 +74,8 @@ export const exampleCatalog: readonly CatalogProduct[] = [
     cctKelvin: 4000,
     cri: 82,
     powerFactor: 0.95,
+    inputVoltsMin: 120,
+    inputVoltsMax: 277,
     dimmable: false,
     enclosedRated: true,
     moistureRating: 'damp',
@@ -118,6 +126,8 @@ export const exampleCatalog: readonly CatalogProduct[] = [
     cctKelvin: 3500,
     cri: 83,
     powerFactor: 0.95,
+    inputVoltsMin: 120,
+    inputVoltsMax: 277,
     dimmable: true,
     enclosedRated: true,
     moistureRating: 'damp',
@@ -143,6 +153,8 @@ export const exampleCatalog: readonly CatalogProduct[] = [
     cctKelvin: 4000,
     cri: 80,
     powerFactor: 0.95,
+    inputVoltsMin: 120,
+    inputVoltsMax: 277,
     dimmable: false,
     enclosedRated: true,
     moistureRating: 'wet',
@@ -168,6 +180,8 @@ export const exampleCatalog: readonly CatalogProduct[] = [
     cctKelvin: 3000,
     cri: 90,
     powerFactor: 0.92,
+    inputVoltsMin: 120,
+    inputVoltsMax: 120,
     dimmable: true,
     enclosedRated: true,
     moistureRating: 'wet',
@@ -193,6 +207,8 @@ export const exampleCatalog: readonly CatalogProduct[] = [
     cctKelvin: 5000,
     cri: 70,
     powerFactor: 0.95,
+    inputVoltsMin: 120,
+    inputVoltsMax: 277,
     dimmable: true,
     enclosedRated: true,
     moistureRating: 'damp',
@@ -210,9 +226,8 @@ export const exampleCatalog: readonly CatalogProduct[] = [
 
 /**
  * Copies a catalog product into an entry's proposal (the entry keeps its own
- * copy, so later catalog edits do not change a quote already given).
+ * copy, so later catalog edits do not change a quote already given). The one
+ * copy rule is the automatic choice's, so a picked and a suggested product
+ * give the same proposal.
  */
-export function proposalFromCatalog(product: CatalogProduct): ProposedProduct {
-  const { id, example: _example, retired: _retired, sku: _sku, ...spec } = product;
-  return { catalogId: id, ...spec };
-}
+export { proposalFromProduct as proposalFromCatalog } from '../calc/proposal.ts';

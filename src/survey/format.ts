@@ -9,7 +9,7 @@
  * and validated by `src/survey/validate.ts`.
  */
 import { CalcInputError } from '../calc/errors.ts';
-import type { CatalogProduct, PhotoMimeType, PhotoOwnerKind, Survey } from './model.ts';
+import type { CatalogProduct, PhotoMimeType, PhotoOwnerKind, Portfolio, Survey } from './model.ts';
 
 /** Value of the `format` field in every Lampwalk survey file. */
 export const fileFormatName = 'lampwalk-survey-file';
@@ -19,7 +19,7 @@ export const fileFormatName = 'lampwalk-survey-file';
  * versions are migrated on reading; newer ones are refused.
  * Raise it only together with a migration in `src/survey/validate.ts`.
  */
-export const fileFormatVersion = 2;
+export const fileFormatVersion = 3;
 
 /**
  * A photo in a survey file: the image and its thumbnail as base64 text
@@ -41,7 +41,7 @@ export interface SurveyFilePhoto {
   thumbnailBase64: string;
 }
 
-/** A Lampwalk survey file (version 2) as written to disk. */
+/** A Lampwalk survey file (version 3) as written to disk. */
 export interface SurveyFile {
   format: typeof fileFormatName;
   version: typeof fileFormatVersion;
@@ -52,6 +52,8 @@ export interface SurveyFile {
   catalog: CatalogProduct[];
   /** Photos of the surveys' rooms and entries (added in version 2; a version-1 file is read as having none). */
   photos: SurveyFilePhoto[];
+  /** Portfolios grouping the surveys (added in version 3; an older file is read as having none). */
+  portfolios: Portfolio[];
 }
 
 /**
@@ -62,13 +64,14 @@ export interface SurveyFile {
  *
  * @example
  * makeSurveyFile([], [], new Date(Date.UTC(2024, 4, 1, 9, 30)))
- * //=> { format: 'lampwalk-survey-file', version: 2, exportedAt: '2024-05-01T09:30:00.000Z', surveys: [], catalog: [], photos: [] }
+ * //=> { format: 'lampwalk-survey-file', version: 3, exportedAt: '2024-05-01T09:30:00.000Z', surveys: [], catalog: [], photos: [], portfolios: [] }
  */
 export function makeSurveyFile(
   surveys: Survey[],
   catalog: CatalogProduct[],
   exportedAt: Date,
   photos: SurveyFilePhoto[] = [],
+  portfolios: Portfolio[] = [],
 ): SurveyFile {
   if (!(exportedAt instanceof Date) || Number.isNaN(exportedAt.getTime())) {
     throw new CalcInputError('exportedAt', 'must be a valid date');
@@ -85,5 +88,6 @@ export function makeSurveyFile(
     surveys,
     catalog,
     photos,
+    portfolios,
   };
 }

@@ -193,6 +193,69 @@ export interface Survey {
   grid: GridFactorChoice;
   rooms: Room[];
   notes: string;
+  /**
+   * Set when this survey is one typical unit standing for several built the
+   * same way (flats of one layout); absent for a one-off building.
+   */
+  layout?: RepeatedLayout;
+  /** ISO 8601 timestamps. */
+  createdAt: string;
+  updatedAt: string;
+}
+
+/**
+ * A surveyed unit that stands for `unitCount` units of the same layout.
+ * Every total, order list and report multiplies by the units, less the
+ * differences recorded in `exceptions`.
+ */
+export interface RepeatedLayout {
+  /** Units built to this layout, the surveyed one included (1–10,000). */
+  unitCount: number;
+  /** Units that differ from the surveyed one; each is one of the `unitCount`. */
+  exceptions: LayoutException[];
+}
+
+/** One unit that differs from its layout, e.g. a flat already converted. */
+export interface LayoutException {
+  id: string;
+  /** Which unit, as the landlord names it ("Flat 3B"). */
+  unitLabel: string;
+  /**
+   * Fixture counts in this unit where they differ from the surveyed unit, by
+   * entry id; 0 when the fixture needs no change there (already converted, or
+   * absent). Entries not listed have the surveyed count.
+   */
+  entryCounts: LayoutEntryCount[];
+  notes: string;
+}
+
+export interface LayoutEntryCount {
+  entryId: string;
+  /** Fixtures of this entry in the unit (0–100,000). */
+  count: number;
+}
+
+/** What the phased plan of a portfolio may spend. */
+export interface PhasePlanSettings {
+  /** Money available each year for the work, in the portfolio's currency (0 or more). */
+  budgetPerYear: number;
+  /** Years the work may be spread over, the first year included (1–20). */
+  years: number;
+}
+
+/**
+ * A group of surveys (buildings, or unit layouts) planned together: one
+ * landlord's estate or one contractor's multi-site job. All its surveys must
+ * use the same currency for roll-up totals and the phased plan.
+ */
+export interface Portfolio {
+  id: string;
+  name: string;
+  client: Client;
+  /** Surveys in the portfolio, in the order they are compared. */
+  surveyIds: string[];
+  plan: PhasePlanSettings;
+  notes: string;
   /** ISO 8601 timestamps. */
   createdAt: string;
   updatedAt: string;
@@ -222,6 +285,8 @@ export interface Room {
   hours: HoursOfUse;
   /** True when colour rendering matters here (retail display, art, clinical). */
   colourCritical: boolean;
+  /** Nominal colour temperature the client wants here (e.g. 3000); automatic product choice keeps to it. */
+  preferredCctKelvin?: number;
   photometry: RoomPhotometry;
   entries: FixtureEntry[];
   notes: string;
@@ -292,6 +357,10 @@ export interface ProposedProduct {
   cctKelvin: number;
   cri: number;
   powerFactor: number;
+  /** Lowest rated input voltage; absent when not recorded. */
+  inputVoltsMin?: number;
+  /** Highest rated input voltage; absent when not recorded. */
+  inputVoltsMax?: number;
   dimmable: boolean;
   /** Rated by its maker for totally enclosed luminaires. */
   enclosedRated: boolean;
@@ -385,7 +454,7 @@ export interface Photo {
 export type PhotoThumbnail = Omit<Photo, 'image' | 'widthPixels' | 'heightPixels'>;
 
 /** What a trash item holds. */
-export type TrashKind = 'survey' | 'room' | 'entry' | 'photo';
+export type TrashKind = 'survey' | 'room' | 'entry' | 'photo' | 'portfolio';
 
 /**
  * Something deleted, kept so it can be restored (for at least 30 days).
@@ -395,18 +464,25 @@ export type TrashKind = 'survey' | 'room' | 'entry' | 'photo';
 export interface TrashItem {
   id: string;
   kind: TrashKind;
-  /** Shown in the trash list: the survey or room name, entry description, or "Photo". */
+  /** Shown in the trash list: the survey, room or portfolio name, entry description, or "Photo". */
   label: string;
   /** ISO 8601 timestamp of the delete. */
   deletedAt: string;
+  /** The survey it belongs to; the empty string for a portfolio (it belongs to none). */
   surveyId: string;
-  /** Where it goes back: the survey of a room, the room of an entry, the owner of a photo; null for a survey. */
+  /** Where it goes back: the survey of a room, the room of an entry, the owner of a photo; null for a survey or a portfolio. */
   parentId: string | null;
   /** The survey itself, for a deleted survey. */
   survey: SurveyHeader | null;
   rooms: StoredRoom[];
   entries: StoredEntry[];
   photos: Photo[];
+  /**
+   * The portfolio itself, for a deleted portfolio (its surveys are not in
+   * the trash with it). Absent on every other item, and on items stored
+   * before portfolios could be deleted to the trash.
+   */
+  portfolio?: Portfolio;
 }
 
 /** The answer to the browser's persistent-storage request. */

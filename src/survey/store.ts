@@ -14,7 +14,7 @@ import { addDays, formatISO, parseISO } from 'date-fns';
 import type * as v from 'valibot';
 import { conflictMessage, exportBackup, importBackup, previewImport, type BackupFile, type ClashChoice, type ImportPreview, type ImportReport } from './backup.ts';
 import { allStores, defaultDatabaseName, openLampwalkDb, settingsKey, tracked, type Connection, type Migration, type OpenHooks, type StoredSettings, type WriteTx } from './db.ts';
-import { demoSurvey } from './demo.ts';
+import { demoLandlordSurveys, demoPortfolio, demoSurvey } from './demo.ts';
 import {
   backupStatus,
   browserEnvironment,
@@ -34,6 +34,7 @@ import type {
   FixtureEntry,
   Photo,
   PhotoThumbnail,
+  Portfolio,
   Room,
   StoredEntry,
   StoredRoom,
@@ -46,11 +47,15 @@ import { newPhotoProblems, type NewPhoto } from './photos.ts';
 import { assembleSurvey, byOrder, entryFields, ordersBetween, roomFields, splitSurvey } from './records.ts';
 import { StoreError } from './store-error.ts';
 import { joinPhoto, makeTrashItem, moveToTrash, photosOf, purgeExpired, putBack, splitPhoto, surveyParts, trashRetentionDays } from './trash.ts';
+import { forgetLayoutEntries, removeSurveyFromPortfolios } from './trash.ts';
 import {
   catalogProductSchema,
   fixtureEntrySchema,
+  layoutLinkProblems,
   maxTextLength,
   parseSurvey,
+  portfolioLinkProblems,
+  portfolioSchema,
   problemsAgainst,
   roomSchema,
   surveySchema,
@@ -69,6 +74,48 @@ export const maxUnitsPerCopy = 500;
 /** Changes to a record: each field given is set; a field given as `undefined` is removed (for optional fields). */
 export type Patch<T> = { [K in keyof T]?: T[K] | undefined };
 
+/**
+ * Changes to some fields of an object-valued field (e.g. an entry's
+ * `existing`): the fields given are set (`undefined` removes an optional one)
+ * and the others keep the values stored when the edit commits, so two windows
+ * changing different fields of the same object both keep their change. Make
+ * one with {@link changeFields}; a plain object value replaces the whole field.
+ */
+export class FieldChanges<T extends object> {
+  constructor(readonly changes: Patch<T>) {}
+}
+
+/**
+ * Only these fields of an object-valued field, for {@link NestedPatch}.
+ *
+ * @example await store.updateEntry(id, { existing: changeFields({ lumensPerLamp: 2600 }) }) //=> the entry, its other `existing` fields as stored
+ */
+export function changeFields<T extends object>(changes: Patch<T>): FieldChanges<T> {
+  return new FieldChanges(changes);
+}
+
+type NestedChange<V> = V extends readonly unknown[] ? never : V extends object ? FieldChanges<V> : never;
+
+/** A {@link Patch} whose object-valued fields may also be given as {@link FieldChanges} (per-field, later write wins). */
+export type NestedPatch<T> = { [K in keyof T]?: T[K] | undefined | NestedChange<T[K]> };
+
+/** What one committed edit changed: `entry`, `room` or `survey` name the records changed in place; `layout` is anything else (added, removed, moved, restored). */
+export interface StoreChange {
+  surveyId: string;
+  kind: 'entry' | 'room' | 'survey' | 'layout';
+  ids: string[];
+}
+
+/**
+ * A committed edit that created, changed, deleted or restored a portfolio
+ * (portfolios belong to no survey, so they are announced apart from
+ * {@link StoreChange}; see {@link SurveyStore.onPortfolioChange}).
+ */
+export interface PortfolioChange {
+  kind: 'portfolio';
+  portfolioId: string;
+}
+
 /** A new survey: everything but its id, rooms and timestamps. */
 export type NewSurvey = Omit<Survey, 'id' | 'rooms' | 'createdAt' | 'updatedAt'>;
 /** A new room: everything but its id and entries. */
@@ -77,6 +124,8 @@ export type NewRoom = Omit<Room, 'id' | 'entries'>;
 export type NewEntry = Omit<FixtureEntry, 'id'>;
 /** A new catalog product: everything but its id. */
 export type NewProduct = Omit<CatalogProduct, 'id'>;
+/** A new portfolio: everything but its id and timestamps. */
+export type NewPortfolio = Omit<Portfolio, 'id' | 'createdAt' | 'updatedAt'>;
 
 /** A line of the trash list (without the records it holds). */
 export interface TrashSummary {
@@ -124,13 +173,20 @@ function checkRecord(schema: RecordSchema, value: unknown, what: string): void {
   if (problems.length > 0) throw invalid(what, problems);
 }
 
-/** `current` with `patch` applied (undefined removes a field); `__proto__` and `constructor` keys are ignored. */
-function applyPatch<T extends object>(current: T, patch: Patch<T>): T {
+/**
+ * `current` with `patch` applied (undefined removes a field; {@link FieldChanges}
+ * change only the fields they name); `__proto__` and `constructor` keys are ignored.
+ */
+function applyPatch<T extends object>(current: T, patch: NestedPatch<T>): T {
   const next = { ...current } as Record<string, unknown>;
   for (const [key, value] of Object.entries(patch)) {
     if (key === '__proto__' || key === 'constructor') continue;
     if (value === undefined) delete next[key];
-    else next[key] = value;
+    else if (value instanceof FieldChanges) {
+      const base: unknown = next[key];
+      const fields = typeof base === 'object' && base !== null && !Array.isArray(base) ? (base as Record<string, unknown>) : {};
+      next[key] = applyPatch(fields, value.changes as Patch<Record<string, unknown>>);
+    } else next[key] = value;
   }
   return next as T;
 }
@@ -180,6 +236,23 @@ function settingsFields(stored: StoredSettings): AppSettings {
 /** Marks a survey as changed by this edit (its `updatedAt` is stamped when the edit commits). */
 type Touch = (surveyId: string) => void;
 
+/** Marks a portfolio as changed by this edit (announced once it commits). */
+type TouchPortfolio = (portfolioId: string) => void;
+
+/** Surveys by currency, each with the names of the surveys using it (in the order given). */
+function currencyGroups(headers: readonly SurveyHeader[]): Map<string, string[]> {
+  const groups = new Map<string, string[]>();
+  for (const header of headers) groups.set(header.money.currency, [...(groups.get(header.money.currency) ?? []), `“${header.name || 'Untitled survey'}”`]);
+  return groups;
+}
+
+/** "“A” and “B” use USD; “C” uses EUR". */
+function describeCurrencies(groups: ReadonlyMap<string, string[]>): string {
+  return [...groups]
+    .map(([currency, names]) => `${names.length > 1 ? `${names.slice(0, -1).join(', ')} and ${names.at(-1) ?? ''} use` : `${names[0] ?? ''} uses`} ${currency}`)
+    .join('; ');
+}
+
 /**
  * The repository. Get one with {@link startLampwalk} (the app) or
  * {@link openSurveyStore} (tests, tools).
@@ -212,13 +285,27 @@ export class SurveyStore {
    * One user edit: one read-write transaction. The body marks the surveys it
    * changed; their `updatedAt` and the edit counter are written in the same
    * transaction. After the commit, the first real save asks for persistent storage.
+   * Durability is 'strict': the browser reports the commit only once the data
+   * is flushed to disk, so an edit the screen shows as saved also survives a
+   * power cut or an operating-system crash, not only a browser crash.
    */
-  private async userEdit<T>(doing: string, body: (tx: WriteTx, touch: Touch) => Promise<T>): Promise<T> {
+  private async userEdit<T>(
+    doing: string,
+    body: (tx: WriteTx, touch: Touch, touchPortfolio: TouchPortfolio) => Promise<T>,
+    changed: Omit<StoreChange, 'surveyId'> = { kind: 'layout', ids: [] },
+  ): Promise<T> {
     const stamp = this.stamp();
     let persistenceRecorded = false;
+    const touched = new Set<string>();
+    const portfoliosTouched = new Set<string>();
     const result = await this.connection.write(allStores, doing, async (tx) => {
-      const touched = new Set<string>();
-      const value = await body(tx, (surveyId) => touched.add(surveyId));
+      touched.clear();
+      portfoliosTouched.clear();
+      const value = await body(
+        tx,
+        (surveyId) => touched.add(surveyId),
+        (portfolioId) => portfoliosTouched.add(portfolioId),
+      );
       const surveys = tx.objectStore('surveys');
       const [settings, ...headers] = await Promise.all([
         tracked(tx.objectStore('settings').get(settingsKey)),
@@ -231,9 +318,54 @@ export class SurveyStore {
       writes.push(tracked(tx.objectStore('settings').put({ ...base, editsSinceBackup: base.editsSinceBackup + 1, lastEditAt: stamp })));
       await Promise.all(writes);
       return value;
-    });
+    }, 'strict');
     this.afterRealSave(persistenceRecorded);
+    for (const surveyId of touched) this.announce({ surveyId, ...changed });
+    for (const portfolioId of portfoliosTouched) this.announcePortfolio({ kind: 'portfolio', portfolioId });
     return result;
+  }
+
+  #changeListeners = new Set<(change: StoreChange) => void>();
+  #portfolioListeners = new Set<(change: PortfolioChange) => void>();
+
+  /**
+   * Calls `listener` after each committed edit, once per portfolio it
+   * created, changed, deleted or restored (deleting a survey changes the
+   * portfolios that listed it). Returns the function that stops it.
+   */
+  onPortfolioChange(listener: (change: PortfolioChange) => void): () => void {
+    this.#portfolioListeners.add(listener);
+    return () => this.#portfolioListeners.delete(listener);
+  }
+
+  private announcePortfolio(change: PortfolioChange): void {
+    for (const listener of this.#portfolioListeners) {
+      try {
+        listener(change);
+      } catch {
+        // A listener's failure must not turn a saved edit into a failed one.
+      }
+    }
+  }
+
+  /**
+   * Calls `listener` after each committed edit, once per survey it changed
+   * (other windows learn of it through this; see `src/ui/state/broadcast.ts`).
+   * Returns the function that stops it.
+   */
+  onChange(listener: (change: StoreChange) => void): () => void {
+    this.#changeListeners.add(listener);
+    return () => this.#changeListeners.delete(listener);
+  }
+
+  private announce(change: StoreChange): void {
+    for (const listener of this.#changeListeners) {
+      try {
+        listener(change);
+      } catch {
+        // A listener's failure must not turn a saved edit into a failed one.
+      }
+    }
   }
 
   /**
@@ -274,11 +406,13 @@ export class SurveyStore {
 
   /**
    * Sets up a database that has no settings yet, in one transaction: the
-   * settings record, the example catalog products and the demo survey (each
-   * only if asked and not already there). Then writes the usage markers kept
+   * settings record, the example catalog products, the demo survey and the
+   * landlord scenario (its layout surveys and the demo portfolio grouping
+   * them with the demo survey; asked with `demoPortfolio`, default: with
+   * the demo survey), each only if asked and not already there. Then writes the usage markers kept
    * outside IndexedDB. Does nothing to a database already set up.
    */
-  async initialise(seed: { exampleCatalog: boolean; demoSurvey: boolean }): Promise<AppSettings> {
+  async initialise(seed: { exampleCatalog: boolean; demoSurvey: boolean; demoPortfolio?: boolean }): Promise<AppSettings> {
     const stamp = this.stamp();
     const settings = await this.connection.write(allStores, 'set up Lampwalk on this device', async (tx) => {
       const existing = await tx.objectStore('settings').get(settingsKey);
@@ -294,11 +428,19 @@ export class SurveyStore {
         created.exampleCatalogSeededAt = stamp;
       }
       if (seed.demoSurvey) {
-        const demo = splitSurvey(demoSurvey());
-        if ((await tx.objectStore('surveys').getKey(demo.survey.id)) === undefined) {
+        // The demo building, and with the landlord scenario its layouts and the portfolio grouping them.
+        const landlord = seed.demoPortfolio ?? true;
+        const surveys = [demoSurvey(), ...(landlord ? demoLandlordSurveys() : [])].map((survey) => splitSurvey(survey));
+        const present = await Promise.all(surveys.map((demo) => tracked(tx.objectStore('surveys').getKey(demo.survey.id))));
+        surveys.forEach((demo, index) => {
+          if (present[index] !== undefined) return;
           requests.push(tracked(tx.objectStore('surveys').add(demo.survey)));
           for (const room of demo.rooms) requests.push(tracked(tx.objectStore('rooms').add(room)));
           for (const entry of demo.entries) requests.push(tracked(tx.objectStore('entries').add(entry)));
+        });
+        const portfolio = demoPortfolio();
+        if (landlord && (await tx.objectStore('portfolios').getKey(portfolio.id)) === undefined) {
+          requests.push(tracked(tx.objectStore('portfolios').add(portfolio)));
         }
         created.demoSeededAt = stamp;
       }
@@ -368,6 +510,9 @@ export class SurveyStore {
     const stamp = this.stamp();
     const header: SurveyHeader = { ...fields, id: crypto.randomUUID(), createdAt: stamp, updatedAt: stamp };
     checkRecord(surveySchema, { ...header, rooms: [] }, 'The survey');
+    // A new survey has no entries yet, so its differing units can name none.
+    const layoutProblems = layoutLinkProblems(header, '', new Set());
+    if (layoutProblems.length > 0) throw invalid('The survey', layoutProblems);
     return this.userEdit('save the new survey', async (tx) => {
       await tx.objectStore('surveys').add(header);
       return header;
@@ -393,25 +538,39 @@ export class SurveyStore {
   }
 
   /** Changes survey fields (not its id or timestamps); stamps `updatedAt`. */
-  async updateSurvey(surveyId: string, patch: Patch<NewSurvey>): Promise<SurveyHeader> {
+  async updateSurvey(surveyId: string, patch: NestedPatch<NewSurvey>): Promise<SurveyHeader> {
     return this.userEdit('save the survey', async (tx, touch) => {
       const current = await tx.objectStore('surveys').get(surveyId);
       if (!current) throw notFound('survey');
       const next: SurveyHeader = { ...applyPatch<SurveyHeader>(current, patch), id: current.id, createdAt: current.createdAt, updatedAt: this.stamp() };
       checkRecord(surveySchema, { ...next, rooms: [] }, 'The survey');
+      if (next.layout && Object.hasOwn(patch, 'layout')) {
+        // Differing units may only name entries stored in this survey now.
+        const entryIds = await tx.objectStore('entries').index('bySurvey').getAllKeys(surveyId);
+        const problems = layoutLinkProblems(next, '', new Set(entryIds));
+        if (problems.length > 0) throw invalid('The survey', problems);
+      }
+      if (next.money.currency !== current.money.currency) await this.checkCurrencyChange(tx, current, next.money.currency);
       await tx.objectStore('surveys').put(next);
       touch(surveyId);
       return next;
-    });
+    }, { kind: 'survey', ids: [surveyId] });
   }
 
-  /** Moves a survey, its rooms, entries and photos to the trash; returns the trash item id. */
+  /**
+   * Moves a survey, its rooms, entries and photos to the trash and takes it
+   * out of every portfolio, in one transaction; returns the trash item id.
+   * Restoring it from the trash does not put it back in those portfolios.
+   */
   async deleteSurvey(surveyId: string): Promise<string> {
     const stamp = this.stamp();
-    return this.userEdit('delete the survey', async (tx) => {
+    return this.userEdit('delete the survey', async (tx, touch, touchPortfolio) => {
+      // Marked so other windows hear of it (the header is gone, so nothing is stamped).
+      touch(surveyId);
       const parts = await surveyParts(tx, surveyId);
       const item = makeTrashItem('survey', { label: parts.survey.name, surveyId, parentId: null, ...parts }, stamp);
       await moveToTrash(tx, item);
+      for (const portfolioId of await removeSurveyFromPortfolios(tx, surveyId, stamp)) touchPortfolio(portfolioId);
       return item.id;
     });
   }
@@ -450,7 +609,7 @@ export class SurveyStore {
   }
 
   /** Changes room fields (not its id, survey or place). */
-  async updateRoom(roomId: string, patch: Patch<NewRoom>): Promise<StoredRoom> {
+  async updateRoom(roomId: string, patch: NestedPatch<NewRoom>): Promise<StoredRoom> {
     return this.userEdit('save the room', async (tx, touch) => {
       const current = await tx.objectStore('rooms').get(roomId);
       if (!current) throw notFound('room');
@@ -459,7 +618,7 @@ export class SurveyStore {
       await tx.objectStore('rooms').put(next);
       touch(current.surveyId);
       return next;
-    });
+    }, { kind: 'room', ids: [roomId] });
   }
 
   /** Moves a room with its entries and their photos to the trash; returns the trash item id. */
@@ -472,6 +631,7 @@ export class SurveyStore {
       const photos = await photosOf(tx, [roomId, ...entries.map((entry) => entry.id)]);
       const item = makeTrashItem('room', { label: room.name, surveyId: room.surveyId, parentId: room.surveyId, rooms: [room], entries, photos }, stamp);
       await moveToTrash(tx, item);
+      await forgetLayoutEntries(tx, room.surveyId, entries.map((entry) => entry.id));
       touch(room.surveyId);
       return item.id;
     });
@@ -599,7 +759,7 @@ export class SurveyStore {
   }
 
   /** Changes entry fields (not its id, room or place). The one-field edit of the field screens. */
-  async updateEntry(entryId: string, patch: Patch<NewEntry>): Promise<StoredEntry> {
+  async updateEntry(entryId: string, patch: NestedPatch<NewEntry>): Promise<StoredEntry> {
     return this.userEdit('save the fixture entry', async (tx, touch) => {
       const entries = tx.objectStore('entries');
       const current = await entries.get(entryId);
@@ -615,7 +775,7 @@ export class SurveyStore {
       await entries.put(next);
       touch(current.surveyId);
       return next;
-    });
+    }, { kind: 'entry', ids: [entryId] });
   }
 
   /** Moves an entry and its photos to the trash; returns the trash item id. */
@@ -628,6 +788,8 @@ export class SurveyStore {
       const label = entry.existing.description || `${entry.count} × ${entry.existing.technology}`;
       const item = makeTrashItem('entry', { label, surveyId: entry.surveyId, parentId: entry.roomId, entries: [entry], photos }, stamp);
       await moveToTrash(tx, item);
+      // Its counts in differing units of the layout go too (restoring the entry does not bring them back).
+      await forgetLayoutEntries(tx, entry.surveyId, [entryId]);
       touch(entry.surveyId);
       return item.id;
     });
@@ -670,6 +832,7 @@ export class SurveyStore {
         }
       }
       await Promise.all(writes);
+      if (room.surveyId !== entry.surveyId) await forgetLayoutEntries(tx, entry.surveyId, [entryId]);
       touch(entry.surveyId);
       touch(room.surveyId);
       return moved;
@@ -749,11 +912,13 @@ export class SurveyStore {
   }
 
   /**
-   * Puts a deleted survey, room, entry or photo back where it was. Fails with
-   * `not-found` when what it belonged to is gone (restore that first).
+   * Puts a deleted survey, room, entry, photo or portfolio back where it was.
+   * Fails with `not-found` when what it belonged to is gone (restore that
+   * first). A portfolio comes back without the surveys that are no longer
+   * on this device. `portfolioId` names a restored portfolio (null otherwise).
    */
-  async restoreFromTrash(trashId: string): Promise<{ kind: TrashKind; surveyId: string }> {
-    return this.userEdit('restore from the trash', async (tx, touch) => {
+  async restoreFromTrash(trashId: string): Promise<{ kind: TrashKind; surveyId: string; portfolioId: string | null }> {
+    return this.userEdit('restore from the trash', async (tx, touch, touchPortfolio) => {
       const item: TrashItem | undefined = await tx.objectStore('trash').get(trashId);
       if (!item) throw notFound('trash item');
       if (item.kind === 'room' && (await tx.objectStore('surveys').getKey(item.surveyId)) === undefined) {
@@ -776,8 +941,9 @@ export class SurveyStore {
         }
         throw error;
       }
-      touch(item.surveyId);
-      return { kind: item.kind, surveyId: item.surveyId };
+      if (item.portfolio) touchPortfolio(item.portfolio.id);
+      else touch(item.surveyId);
+      return { kind: item.kind, surveyId: item.surveyId, portfolioId: item.portfolio?.id ?? null };
     });
   }
 
@@ -842,6 +1008,115 @@ export class SurveyStore {
   }
 
   // -------------------------------------------------------------------------
+  // Portfolios
+
+  /** Every portfolio, most recently changed first. */
+  async listPortfolios(): Promise<Portfolio[]> {
+    const portfolios = await this.connection.read(['portfolios'], 'list the portfolios', (tx) => tx.objectStore('portfolios').getAll());
+    return portfolios.sort((a, b) => Date.parse(b.updatedAt) - Date.parse(a.updatedAt) || a.name.localeCompare(b.name));
+  }
+
+  /** One portfolio. */
+  async getPortfolio(portfolioId: string): Promise<Portfolio> {
+    const portfolio = await this.connection.read(['portfolios'], 'read the portfolio', (tx) => tx.objectStore('portfolios').get(portfolioId));
+    if (!portfolio) throw notFound('portfolio');
+    return portfolio;
+  }
+
+  /**
+   * Checks a portfolio about to be written: the file schema, then (inside the
+   * transaction) that its surveys are stored, each listed once, and that the
+   * edit does not mix currencies: the surveys must use one currency, unless
+   * the portfolio already held several (a file from elsewhere) and the edit
+   * brings in none of its own (`before`: the survey ids stored before the edit).
+   */
+  private async checkPortfolio(tx: WriteTx, portfolio: Portfolio, before: readonly string[] = []): Promise<void> {
+    checkRecord(portfolioSchema, portfolio, 'The portfolio');
+    const headers = await Promise.all(portfolio.surveyIds.map((id) => tracked(tx.objectStore('surveys').get(id))));
+    const stored = headers.filter((header): header is SurveyHeader => header !== undefined);
+    const known = new Set(stored.map((header) => header.id));
+    const problems = portfolioLinkProblems([portfolio], known, { path: () => '', place: 'device' });
+    if (problems.length > 0) throw invalid('The portfolio', problems);
+    const groups = currencyGroups(stored);
+    if (groups.size < 2) return;
+    const had = new Set(stored.filter((header) => before.includes(header.id)).map((header) => header.money.currency));
+    if ([...groups.keys()].every((currency) => had.has(currency))) return;
+    const detail = `its surveys would use different currencies: ${describeCurrencies(groups)}`;
+    throw new StoreError(
+      'invalid',
+      `The portfolio was not saved: ${detail}. A portfolio adds up money and plans under one budget, so its surveys must use one currency. Change the survey’s currency (under Assumptions) first, or leave it out.`,
+      [{ path: 'surveyIds', message: `must name surveys of one currency (${describeCurrencies(groups)})` }],
+    );
+  }
+
+  /**
+   * Refuses to change the currency of a survey to `currency` when that would
+   * bring a new currency into a portfolio listing it with other surveys.
+   */
+  private async checkCurrencyChange(tx: WriteTx, survey: SurveyHeader, currency: string): Promise<void> {
+    const portfolios = (await tx.objectStore('portfolios').getAll()).filter((portfolio) => portfolio.surveyIds.includes(survey.id));
+    for (const portfolio of portfolios) {
+      const others = (
+        await Promise.all(portfolio.surveyIds.filter((id) => id !== survey.id).map((id) => tracked(tx.objectStore('surveys').get(id))))
+      ).filter((header): header is SurveyHeader => header !== undefined);
+      const otherCurrencies = new Set(others.map((header) => header.money.currency));
+      // Allowed when the others already use this currency (even in a portfolio already mixed by a file from elsewhere).
+      if (others.length === 0 || otherCurrencies.has(currency)) continue;
+      const groups = currencyGroups(others);
+      const name = `“${survey.name || 'Untitled survey'}”`;
+      const portfolioName = `“${portfolio.name || 'Untitled portfolio'}”`;
+      throw new StoreError(
+        'invalid',
+        `The survey was not saved: ${name} is in the portfolio ${portfolioName}, where ${describeCurrencies(groups)}, so its currency cannot become ${currency}. Take it out of that portfolio first, or choose ${[...otherCurrencies].join(' or ')}.`,
+        [{ path: 'money.currency', message: `must be ${[...otherCurrencies].join(' or ')} while the survey is in the portfolio ${portfolioName}` }],
+      );
+    }
+  }
+
+  /** Creates a portfolio of stored surveys. */
+  async createPortfolio(fields: NewPortfolio): Promise<Portfolio> {
+    const stamp = this.stamp();
+    const portfolio: Portfolio = { ...fields, surveyIds: [...fields.surveyIds], id: crypto.randomUUID(), createdAt: stamp, updatedAt: stamp };
+    checkRecord(portfolioSchema, portfolio, 'The portfolio');
+    return this.userEdit('save the new portfolio', async (tx, _touch, touchPortfolio) => {
+      await this.checkPortfolio(tx, portfolio);
+      await tx.objectStore('portfolios').add(portfolio);
+      touchPortfolio(portfolio.id);
+      return portfolio;
+    });
+  }
+
+  /** Changes portfolio fields (not its id or timestamps); stamps `updatedAt`. `surveyIds` replaces the whole list. */
+  async updatePortfolio(portfolioId: string, patch: NestedPatch<NewPortfolio>): Promise<Portfolio> {
+    return this.userEdit('save the portfolio', async (tx, _touch, touchPortfolio) => {
+      const current = await tx.objectStore('portfolios').get(portfolioId);
+      if (!current) throw notFound('portfolio');
+      const next: Portfolio = { ...applyPatch<Portfolio>(current, patch), id: current.id, createdAt: current.createdAt, updatedAt: this.stamp() };
+      await this.checkPortfolio(tx, next, current.surveyIds);
+      await tx.objectStore('portfolios').put(next);
+      touchPortfolio(portfolioId);
+      return next;
+    });
+  }
+
+  /**
+   * Moves a portfolio to the trash (its surveys stay where they are);
+   * returns the trash item id. Restoring it brings it back without the
+   * surveys deleted meanwhile.
+   */
+  async deletePortfolio(portfolioId: string): Promise<string> {
+    const stamp = this.stamp();
+    return this.userEdit('delete the portfolio', async (tx, _touch, touchPortfolio) => {
+      const portfolio = await tx.objectStore('portfolios').get(portfolioId);
+      if (!portfolio) throw notFound('portfolio');
+      const item = makeTrashItem('portfolio', { label: portfolio.name || 'Untitled portfolio', surveyId: '', parentId: null, portfolio }, stamp);
+      await moveToTrash(tx, item);
+      touchPortfolio(portfolioId);
+      return item.id;
+    });
+  }
+
+  // -------------------------------------------------------------------------
   // Backup and restore
 
   /**
@@ -882,6 +1157,7 @@ export class SurveyStore {
     try {
       const { report, persistenceRecorded } = await importBackup(this.connection, text, choice, stamp, freshSettings(stamp));
       this.afterRealSave(persistenceRecorded);
+      for (const surveyId of report.surveyIds) this.announce({ surveyId, kind: 'layout', ids: [] });
       return report;
     } catch (error) {
       // An id taken while writing (the clash checks passed): say what to do about it.
@@ -935,12 +1211,18 @@ export interface StartResult {
 export interface StartOptions extends StoreOptions {
   /** Seed the demo survey on first run (default true). */
   seedDemo?: boolean;
+  /**
+   * With the demo survey, also seed the landlord scenario: three layout
+   * surveys and the demo portfolio (default true; tests that need the demo
+   * survey alone turn it off).
+   */
+  seedDemoPortfolio?: boolean;
 }
 
 /**
  * Opens the store for the app: removes expired trash, tells first run from
  * eviction using the markers kept outside IndexedDB, seeds the example
- * catalog and the demo survey on first run, and refreshes the markers.
+ * catalog and the demo data (survey, layouts, portfolio) on first run, and refreshes the markers.
  *
  * @example
  * const { store, state } = await startLampwalk({ onClosed: () => askToReload() })
@@ -956,6 +1238,6 @@ export async function startLampwalk(options: StartOptions = {}): Promise<StartRe
     return { store, state: 'returning', previousUse, trashPurged };
   }
   if (previousUse) return { store, state: 'evicted', previousUse, trashPurged };
-  await store.initialise({ exampleCatalog: true, demoSurvey: options.seedDemo ?? true });
+  await store.initialise({ exampleCatalog: true, demoSurvey: options.seedDemo ?? true, demoPortfolio: options.seedDemoPortfolio ?? true });
   return { store, state: 'first-run', previousUse, trashPurged };
 }

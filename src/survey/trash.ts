@@ -6,7 +6,7 @@
  */
 import { isBefore, parseISO, subDays } from 'date-fns';
 import { tracked, type AnyTx, type StoredPhoto, type WriteTx } from './db.ts';
-import type { Photo, PhotoThumbnail, StoredEntry, StoredRoom, SurveyHeader, TrashItem, TrashKind } from './model.ts';
+import type { Photo, PhotoThumbnail, Portfolio, StoredEntry, StoredRoom, SurveyHeader, TrashItem, TrashKind } from './model.ts';
 import { StoreError } from './store-error.ts';
 
 /** Deleted things stay restorable for at least this many days; older ones are removed at start-up. */
@@ -88,7 +88,16 @@ export async function surveyParts<M extends IDBTransactionMode>(
  */
 export function makeTrashItem(
   kind: TrashKind,
-  fields: { label: string; surveyId: string; parentId: string | null; survey?: SurveyHeader; rooms?: StoredRoom[]; entries?: StoredEntry[]; photos?: Photo[] },
+  fields: {
+    label: string;
+    surveyId: string;
+    parentId: string | null;
+    survey?: SurveyHeader;
+    rooms?: StoredRoom[];
+    entries?: StoredEntry[];
+    photos?: Photo[];
+    portfolio?: Portfolio;
+  },
   deletedAt: string,
 ): TrashItem {
   return {
@@ -102,6 +111,8 @@ export function makeTrashItem(
     rooms: fields.rooms ?? [],
     entries: fields.entries ?? [],
     photos: fields.photos ?? [],
+    // Only a portfolio's item has the field: the others stay as they were stored before it existed.
+    ...(fields.portfolio ? { portfolio: fields.portfolio } : {}),
   };
 }
 
@@ -114,6 +125,7 @@ export function makeTrashItem(
 export async function moveToTrash(tx: WriteTx, item: TrashItem): Promise<void> {
   const requests: Promise<unknown>[] = [tracked(tx.objectStore('trash').add(item))];
   if (item.survey) requests.push(tracked(tx.objectStore('surveys').delete(item.survey.id)));
+  if (item.portfolio) requests.push(tracked(tx.objectStore('portfolios').delete(item.portfolio.id)));
   for (const room of item.rooms) requests.push(tracked(tx.objectStore('rooms').delete(room.id)));
   for (const entry of item.entries) requests.push(tracked(tx.objectStore('entries').delete(entry.id)));
   for (const photo of item.photos) {
@@ -125,7 +137,8 @@ export async function moveToTrash(tx: WriteTx, item: TrashItem): Promise<void> {
 /**
  * Puts the item's records back (with `add`, so a record whose id was reused
  * meanwhile fails the transaction instead of being overwritten) and removes
- * it from the trash.
+ * it from the trash. A portfolio comes back without the surveys that are no
+ * longer stored (deleted since; restoring one later does not re-add it).
  *
  * @example
  * await putBack(tx, item) //=> undefined (the records are back; the item is gone)
@@ -133,6 +146,7 @@ export async function moveToTrash(tx: WriteTx, item: TrashItem): Promise<void> {
 export async function putBack(tx: WriteTx, item: TrashItem): Promise<void> {
   const requests: Promise<unknown>[] = [tracked(tx.objectStore('trash').delete(item.id))];
   if (item.survey) requests.push(tracked(tx.objectStore('surveys').add(item.survey)));
+  if (item.portfolio) requests.push(putBackPortfolio(tx, item.portfolio));
   for (const room of item.rooms) requests.push(tracked(tx.objectStore('rooms').add(room)));
   for (const entry of item.entries) requests.push(tracked(tx.objectStore('entries').add(entry)));
   for (const photo of item.photos) {
@@ -140,6 +154,14 @@ export async function putBack(tx: WriteTx, item: TrashItem): Promise<void> {
     requests.push(tracked(tx.objectStore('photos').add(image)), tracked(tx.objectStore('thumbnails').add(thumbnail)));
   }
   await Promise.all(requests);
+}
+
+/** Adds a portfolio back, keeping only the surveys still stored. */
+async function putBackPortfolio(tx: WriteTx, portfolio: Portfolio): Promise<void> {
+  const surveys = tx.objectStore('surveys');
+  const present = await Promise.all(portfolio.surveyIds.map((id) => tracked(surveys.getKey(id))));
+  const surveyIds = portfolio.surveyIds.filter((_id, index) => present[index] !== undefined);
+  await tracked(tx.objectStore('portfolios').add({ ...portfolio, surveyIds }));
 }
 
 /**
@@ -159,4 +181,44 @@ export async function purgeExpired(tx: WriteTx, now: Date): Promise<number> {
   }
   await Promise.all(expired.map((id) => tracked(tx.objectStore('trash').delete(id))));
   return expired.length;
+}
+
+/**
+ * Takes these fixture entries out of the repeated layout of their survey
+ * (they were deleted or moved to another survey, so no unit can differ in
+ * them): each differing unit drops its count for them; the unit itself stays.
+ * Writes the survey record only when its layout named one of them.
+ *
+ * @example
+ * await forgetLayoutEntries(tx, 'flat-a', ['e1']) //=> true when a differing unit had a count for e1
+ */
+export async function forgetLayoutEntries(tx: WriteTx, surveyId: string, entryIds: readonly string[]): Promise<boolean> {
+  if (entryIds.length === 0) return false;
+  const header = await tx.objectStore('surveys').get(surveyId);
+  const layout = header?.layout;
+  if (!header || !layout) return false;
+  const gone = new Set(entryIds);
+  if (!layout.exceptions.some((unit) => unit.entryCounts.some((item) => gone.has(item.entryId)))) return false;
+  const exceptions = layout.exceptions.map((unit) => ({ ...unit, entryCounts: unit.entryCounts.filter((item) => !gone.has(item.entryId)) }));
+  await tx.objectStore('surveys').put({ ...header, layout: { ...layout, exceptions } });
+  return true;
+}
+
+/**
+ * Takes a survey out of every portfolio that lists it (the survey is being
+ * deleted), stamping those portfolios' `updatedAt`. Returns their ids.
+ * Restoring the survey from the trash does not put it back in them.
+ *
+ * @example
+ * await removeSurveyFromPortfolios(tx, 'flat-a', stamp) //=> ['pf-1']
+ */
+export async function removeSurveyFromPortfolios(tx: WriteTx, surveyId: string, stamp: string): Promise<string[]> {
+  const portfolios = await tx.objectStore('portfolios').getAll();
+  const changed = portfolios.filter((portfolio) => portfolio.surveyIds.includes(surveyId));
+  await Promise.all(
+    changed.map((portfolio) =>
+      tracked(tx.objectStore('portfolios').put({ ...portfolio, surveyIds: portfolio.surveyIds.filter((id) => id !== surveyId), updatedAt: stamp })),
+    ),
+  );
+  return changed.map((portfolio) => portfolio.id);
 }

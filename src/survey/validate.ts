@@ -28,12 +28,17 @@ import type {
   GridFactorChoice,
   HeatingType,
   HoursOfUse,
+  LayoutEntryCount,
+  LayoutException,
   MoistureRating,
   MoneyAssumptions,
+  PhasePlanSettings,
   PhotoMimeType,
   PhotoOwnerKind,
+  Portfolio,
   ProductForm,
   ProposedProduct,
+  RepeatedLayout,
   Room,
   RoomPhotometry,
   SavingsAssumptions,
@@ -442,6 +447,9 @@ export const fixtureConditionsSchema = record(
   'fixture conditions',
 );
 
+/** Highest rated input voltage a product may record. */
+const maxVolts = 1000;
+
 /** Fields shared by a proposed product and a catalog product. */
 const productEntries = {
   name: text,
@@ -453,6 +461,8 @@ const productEntries = {
   cctKelvin,
   cri,
   powerFactor,
+  inputVoltsMin: v.exactOptional(numberIn(1, maxVolts)),
+  inputVoltsMax: v.exactOptional(numberIn(1, maxVolts)),
   dimmable: flag,
   enclosedRated: flag,
   moistureRating: oneOf(moistureRatings),
@@ -465,13 +475,30 @@ const productEntries = {
   rebatePerFixture: cost,
 };
 
-/** Schema for {@link ProposedProduct}. */
-export const proposedProductSchema = record({ catalogId: v.exactOptional(id), ...productEntries }, 'a proposed product');
+/**
+ * The lowest rated input voltage may not lie above the highest. Values that
+ * failed their own range check are skipped (valibot still runs this check),
+ * so a bad voltage is reported once.
+ */
+function voltsInOrder(product: { inputVoltsMin?: number; inputVoltsMax?: number }): boolean {
+  const { inputVoltsMin: low, inputVoltsMax: high } = product;
+  const valid = (volts: unknown): volts is number => typeof volts === 'number' && Number.isFinite(volts) && volts >= 1 && volts <= maxVolts;
+  return !valid(low) || !valid(high) || low <= high;
+}
 
-/** Schema for {@link CatalogProduct}. */
-export const catalogProductSchema = record(
-  { id, ...productEntries, example: flag, retired: flag, sku: text },
-  'a catalog product',
+const voltsOrderMessage = (issue: v.BaseIssue<{ inputVoltsMin?: number; inputVoltsMax?: number }>): string =>
+  `must not be below the lowest input voltage of ${issue.input.inputVoltsMin} V (got ${issue.input.inputVoltsMax})`;
+
+/** Schema for {@link ProposedProduct}; the lowest input voltage may not lie above the highest. */
+export const proposedProductSchema = v.pipe(
+  record({ catalogId: v.exactOptional(id), ...productEntries }, 'a proposed product'),
+  v.forward(v.partialCheck([['inputVoltsMin'], ['inputVoltsMax']], voltsInOrder, voltsOrderMessage), ['inputVoltsMax']),
+);
+
+/** Schema for {@link CatalogProduct}; the lowest input voltage may not lie above the highest. */
+export const catalogProductSchema = v.pipe(
+  record({ id, ...productEntries, example: flag, retired: flag, sku: text }, 'a catalog product'),
+  v.forward(v.partialCheck([['inputVoltsMin'], ['inputVoltsMax']], voltsInOrder, voltsOrderMessage), ['inputVoltsMax']),
 );
 
 /** Schema for {@link FixtureEntry}. */
@@ -522,6 +549,7 @@ export const roomSchema = v.pipe(
       workPlaneHeightMetres: numberIn(0, maxCeilingHeightMetres),
       hours: hoursOfUseSchema,
       colourCritical: flag,
+      preferredCctKelvin: v.exactOptional(cctKelvin),
       photometry: roomPhotometrySchema,
       entries: listOf(fixtureEntrySchema, 'fixture entries'),
       notes: text,
@@ -536,6 +564,42 @@ export const roomSchema = v.pipe(
         `must be below the ceiling height of ${issue.input.ceilingHeightMetres} m (got ${issue.input.workPlaneHeightMetres})`,
     ),
     ['workPlaneHeightMetres'],
+  ),
+);
+
+/** Most units one layout may stand for. */
+export const maxLayoutUnits = 10_000;
+
+/** Schema for {@link LayoutEntryCount}. */
+export const layoutEntryCountSchema = record(
+  { entryId: id, count: numberIn(0, 100_000, { integer: true }) },
+  'a fixture count for one entry in a unit',
+);
+
+/** Schema for {@link LayoutException} (that its entry ids are in the survey is checked apart). */
+export const layoutExceptionSchema = record(
+  { id, unitLabel: text, entryCounts: listOf(layoutEntryCountSchema, 'fixture counts'), notes: text },
+  'a unit that differs from its layout',
+);
+
+/** Schema for {@link RepeatedLayout}; there cannot be more differing units than units. */
+export const repeatedLayoutSchema = v.pipe(
+  record(
+    {
+      unitCount: numberIn(1, maxLayoutUnits, { integer: true }),
+      exceptions: listOf(layoutExceptionSchema, 'units that differ'),
+    },
+    'a repeated layout',
+  ),
+  v.forward(
+    v.partialCheck(
+      [['unitCount'], ['exceptions']],
+      (layout: { unitCount: number; exceptions: readonly unknown[] }) =>
+        !Number.isInteger(layout.unitCount) || layout.exceptions.length <= layout.unitCount,
+      (issue) =>
+        `lists more differing units than the layout has units (${issue.input.unitCount}); raise the unit count or remove a unit`,
+    ),
+    ['exceptions'],
   ),
 );
 
@@ -557,6 +621,7 @@ export const surveySchema = record(
     grid: gridFactorChoiceSchema,
     rooms: listOf(roomSchema, 'rooms'),
     notes: text,
+    layout: v.exactOptional(repeatedLayoutSchema),
     createdAt: timestamp,
     updatedAt: timestamp,
   },
@@ -591,6 +656,27 @@ export const photoSchema = record(
   'a photo',
 );
 
+/** Schema for {@link PhasePlanSettings}. */
+export const phasePlanSettingsSchema = record(
+  { budgetPerYear: cost, years: numberIn(1, 20, { integer: true }) },
+  'phased plan settings',
+);
+
+/** Schema for {@link Portfolio} (that its surveys are in the file is checked apart). */
+export const portfolioSchema = record(
+  {
+    id,
+    name: text,
+    client: record({ name: text, contact: text }, 'a client'),
+    surveyIds: listOf(id, 'survey ids'),
+    plan: phasePlanSettingsSchema,
+    notes: text,
+    createdAt: timestamp,
+    updatedAt: timestamp,
+  },
+  'a portfolio',
+);
+
 /** Schema for a current-version {@link SurveyFile} (without the id-uniqueness and photo-link checks). */
 export const surveyFileSchema = record(
   {
@@ -604,6 +690,7 @@ export const surveyFileSchema = record(
     surveys: listOf(surveySchema, 'surveys'),
     catalog: listOf(catalogProductSchema, 'catalog products'),
     photos: listOf(photoSchema, 'photos'),
+    portfolios: listOf(portfolioSchema, 'portfolios'),
   },
   'a Lampwalk survey file',
 );
@@ -639,7 +726,12 @@ const schemasMatchModel: [
   Same<v.InferOutput<typeof savingsAssumptionsSchema>, SavingsAssumptions>,
   Same<v.InferOutput<typeof floorSchema>, Room['floor']>,
   Same<v.InferOutput<typeof photoSchema>, SurveyFilePhoto>,
-] = [true, true, true, true, true, true, true, true, true, true, true, true, true, true, true];
+  Same<v.InferOutput<typeof repeatedLayoutSchema>, RepeatedLayout>,
+  Same<v.InferOutput<typeof layoutExceptionSchema>, LayoutException>,
+  Same<v.InferOutput<typeof layoutEntryCountSchema>, LayoutEntryCount>,
+  Same<v.InferOutput<typeof portfolioSchema>, Portfolio>,
+  Same<v.InferOutput<typeof phasePlanSettingsSchema>, PhasePlanSettings>,
+] = [true, true, true, true, true, true, true, true, true, true, true, true, true, true, true, true, true, true, true, true];
 void schemasMatchModel;
 
 // ---------------------------------------------------------------------------
@@ -783,6 +875,129 @@ function photoLinkProblems(file: unknown): FileProblem[] {
   return problems;
 }
 
+/**
+ * Checks a survey's repeated layout against its own entries: each differing
+ * unit's entry ids name fixture entries of the survey (`entryIds`; the ids of
+ * the survey itself when not given) and are listed once per unit, and no two
+ * differing units share an id. Works on unvalidated input (values of the
+ * wrong type are left to the schema). `path` is the survey's path.
+ *
+ * @example
+ * layoutLinkProblems({ rooms: [], layout: { unitCount: 2, exceptions: [{ id: 'u1', entryCounts: [{ entryId: 'e9', count: 0 }] }] } }, 'surveys[0]')
+ * //=> [{ path: 'surveys[0].layout.exceptions[0].entryCounts[0].entryId', message: 'names no fixture entry of this survey ("e9"); …' }]
+ */
+export function layoutLinkProblems(survey: unknown, path = '', entryIds?: ReadonlySet<string>): FileProblem[] {
+  if (!isObject(survey)) return [];
+  const layout = own(survey, 'layout');
+  if (!isObject(layout)) return [];
+  let known = entryIds;
+  if (!known) {
+    const ids = new Set<string>();
+    for (const room of ownList(survey, 'rooms')) {
+      for (const entry of ownList(room, 'entries')) {
+        const entryId = isObject(entry) ? own(entry, 'id') : undefined;
+        if (typeof entryId === 'string') ids.add(entryId);
+      }
+    }
+    known = ids;
+  }
+  const problems: FileProblem[] = [];
+  const unitIds = new Map<string, number>();
+  ownList(layout, 'exceptions').forEach((unit, unitIndex) => {
+    if (!isObject(unit)) return;
+    const unitPath = join(path, `layout.exceptions[${unitIndex}]`);
+    const unitId = own(unit, 'id');
+    if (typeof unitId === 'string' && unitId !== '') {
+      const first = unitIds.get(unitId);
+      if (first === undefined) unitIds.set(unitId, unitIndex);
+      else {
+        problems.push({
+          path: `${unitPath}.id`,
+          message: `id ${JSON.stringify(unitId)} is already used by layout.exceptions[${first}]; every differing unit needs an id of its own`,
+        });
+      }
+    }
+    const listed = new Map<string, number>();
+    ownList(unit, 'entryCounts').forEach((item, itemIndex) => {
+      const entryId = isObject(item) ? own(item, 'entryId') : undefined;
+      if (typeof entryId !== 'string' || entryId === '') return;
+      const itemPath = `${unitPath}.entryCounts[${itemIndex}].entryId`;
+      if (!known.has(entryId)) {
+        problems.push({
+          path: itemPath,
+          message: `names no fixture entry of this survey (${JSON.stringify(entryId)}); a differing unit can only change the count of an entry of its own survey`,
+        });
+        return;
+      }
+      const first = listed.get(entryId);
+      if (first === undefined) listed.set(entryId, itemIndex);
+      else {
+        problems.push({
+          path: itemPath,
+          message: `entry ${JSON.stringify(entryId)} is already counted in entryCounts[${first}] of this unit; give each entry one count per unit`,
+        });
+      }
+    });
+  });
+  return problems;
+}
+
+/**
+ * Checks that each portfolio's survey ids name surveys in `surveyIds` once
+ * each, and that portfolio ids are unique. Works on unvalidated input.
+ * `portfolios` is the file's list and `surveyIds` the file's surveys; the
+ * store checks one portfolio against the stored surveys with
+ * `{ path: () => '', place: 'device' }`.
+ *
+ * @example
+ * portfolioLinkProblems([{ id: 'p1', surveyIds: ['s1', 's9'] }], new Set(['s1']))
+ * //=> [{ path: 'portfolios[0].surveyIds[1]', message: 'survey "s9" is not in this file; …' }]
+ */
+export function portfolioLinkProblems(
+  portfolios: readonly unknown[],
+  surveyIds: ReadonlySet<string>,
+  options: { path?: (index: number) => string; place?: 'file' | 'device' } = {},
+): FileProblem[] {
+  const pathOf = options.path ?? ((index: number) => `portfolios[${index}]`);
+  const missing =
+    options.place === 'device'
+      ? 'is not on this device (it may have been deleted); a portfolio can only group stored surveys'
+      : 'is not in this file; a portfolio can only group surveys in the same file';
+  const problems: FileProblem[] = [];
+  const register = new IdRegister('every portfolio needs an id of its own');
+  portfolios.forEach((portfolio, index) => {
+    register.note(portfolio, pathOf(index));
+    const listed = new Map<string, number>();
+    ownList(portfolio, 'surveyIds').forEach((surveyId, itemIndex) => {
+      if (typeof surveyId !== 'string' || surveyId === '') return;
+      const itemPath = join(pathOf(index), `surveyIds[${itemIndex}]`);
+      if (!surveyIds.has(surveyId)) {
+        problems.push({ path: itemPath, message: `survey ${JSON.stringify(surveyId)} ${missing}` });
+        return;
+      }
+      const first = listed.get(surveyId);
+      if (first === undefined) listed.set(surveyId, itemIndex);
+      else {
+        problems.push({
+          path: itemPath,
+          message: `survey ${JSON.stringify(surveyId)} is already listed at surveyIds[${first}]; list each survey once`,
+        });
+      }
+    });
+  });
+  return [...register.problems, ...problems];
+}
+
+/** Ids of the surveys in an unvalidated file. */
+function fileSurveyIds(file: unknown): Set<string> {
+  const ids = new Set<string>();
+  for (const survey of ownList(file, 'surveys')) {
+    const surveyId = isObject(survey) ? own(survey, 'id') : undefined;
+    if (typeof surveyId === 'string') ids.add(surveyId);
+  }
+  return ids;
+}
+
 // ---------------------------------------------------------------------------
 // Versions
 
@@ -794,6 +1009,9 @@ const migrations: Partial<Record<number, (file: Record<string, unknown>) => Reco
   // Version 2 added photos; a version-1 file has none. (A `photos` field in a
   // version-1 file is left as it is and checked as version-2 photos.)
   1: (file) => (Object.hasOwn(file, 'photos') ? file : { ...file, photos: [] }),
+  // Version 3 added portfolios (and the optional layout, preferred CCT and
+  // product voltage fields, which older files simply lack).
+  2: (file) => (Object.hasOwn(file, 'portfolios') ? file : { ...file, portfolios: [] }),
 };
 
 function migrateToCurrent(
@@ -826,7 +1044,7 @@ function migrateToCurrent(
  *
  * @example
  * parseSurveyFile({ format: 'lampwalk-survey-file', version: 1, exportedAt: '2024-05-01T09:30:00Z', surveys: [], catalog: [] })
- * //=> { ok: true, file: { format: 'lampwalk-survey-file', version: 2, exportedAt: '2024-05-01T09:30:00Z', surveys: [], catalog: [], photos: [] } }
+ * //=> { ok: true, file: { format: 'lampwalk-survey-file', version: 3, exportedAt: '2024-05-01T09:30:00Z', surveys: [], catalog: [], photos: [], portfolios: [] } }
  */
 export function parseSurveyFile(input: unknown): ParseResult {
   if (!isObject(input)) {
@@ -884,6 +1102,8 @@ export function parseSurveyFile(input: unknown): ParseResult {
   const photos = new IdRegister(photoIdRule);
   ownList(current, 'photos').forEach((photo, index) => photos.note(photo, `photos[${index}]`));
   problems.push(...records.problems, ...products.problems, ...photos.problems, ...photoLinkProblems(current));
+  ownList(current, 'surveys').forEach((survey, index) => problems.push(...layoutLinkProblems(survey, `surveys[${index}]`)));
+  problems.push(...portfolioLinkProblems(ownList(current, 'portfolios'), fileSurveyIds(current)));
 
   if (!result.success || problems.length > 0) return { ok: false, problems: capped(problems, '(file)') };
   return { ok: true, file: result.output };
@@ -965,6 +1185,7 @@ export function parseSurvey(input: unknown, path = ''): SurveyParseResult {
   const register = new IdRegister(surveyIdRule);
   registerSurveyIds(input, path, register);
   problems.push(...register.problems);
+  problems.push(...layoutLinkProblems(input, path));
   if (!result.success || problems.length > 0) return { ok: false, problems: capped(problems, path === '' ? '(survey)' : path) };
   return { ok: true, survey: result.output };
 }

@@ -16,11 +16,13 @@ import { go, useRoute, type Route } from './router.ts';
 import { SurveysScreen } from './screens/SurveysScreen.tsx';
 import type { SurveyRoute } from './screens/SurveyArea.tsx';
 import type { ToolsRoute } from './screens/ToolsArea.tsx';
+import type { PortfolioRoute } from './screens/PortfolioArea.tsx';
 import { AppContext, type AppServices, type Notice } from './state/context.ts';
 import { messageOf } from './state/errors.ts';
 import { loadPreferences, savePreferences, type Preferences } from './state/preferences.ts';
 
 const surveyScreens = lazyScreen<{ route: SurveyRoute }>(() => import('./screens/SurveyArea.tsx').then((module) => module.SurveyArea));
+const portfolioScreens = lazyScreen<{ route: PortfolioRoute }>(() => import('./screens/PortfolioArea.tsx').then((module) => module.PortfolioArea));
 const toolScreens = lazyScreen<{ route: ToolsRoute }>(() => import('./screens/ToolsArea.tsx').then((module) => module.ToolsArea));
 
 /** Id of the demo survey that first run opens. */
@@ -52,7 +54,12 @@ function Routed(props: { route: Route; evictedSince: string | null | undefined; 
     case 'survey':
     case 'room':
     case 'entry':
+    case 'suggest':
       return <surveyScreens.View route={route} />;
+    case 'portfolios':
+    case 'portfolio':
+    case 'plan':
+      return <portfolioScreens.View route={route} />;
     case 'catalog':
     case 'product':
     case 'settings':

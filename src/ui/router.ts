@@ -9,6 +9,10 @@ export type Route =
   | { name: 'survey'; surveyId: string }
   | { name: 'room'; surveyId: string; roomId: string }
   | { name: 'entry'; surveyId: string; roomId: string; entryId: string }
+  | { name: 'suggest'; surveyId: string }
+  | { name: 'portfolios' }
+  | { name: 'portfolio'; portfolioId: string }
+  | { name: 'plan'; portfolioId: string }
   | { name: 'catalog' }
   | { name: 'product'; productId: string }
   | { name: 'settings' }
@@ -37,8 +41,12 @@ export function parseRoute(hash: string): Route {
   if (a === 'catalog' && parts.length === 1) return { name: 'catalog' };
   if (a === 'catalog' && b && parts.length === 2) return { name: 'product', productId: b };
   if (a === 'settings' && parts.length === 1) return { name: 'settings' };
+  if (a === 'p' && parts.length === 1) return { name: 'portfolios' };
+  if (a === 'p' && b && parts.length === 2) return { name: 'portfolio', portfolioId: b };
+  if (a === 'p' && b && c === 'plan' && parts.length === 3) return { name: 'plan', portfolioId: b };
   if (a === 's' && b) {
     if (parts.length === 2) return { name: 'survey', surveyId: b };
+    if (c === 'suggest' && parts.length === 3) return { name: 'suggest', surveyId: b };
     if (c === 'r' && d && parts.length === 4) return { name: 'room', surveyId: b, roomId: d };
     if (c === 'r' && d && e === 'e' && f && parts.length === 6) return { name: 'entry', surveyId: b, roomId: d, entryId: f };
   }
@@ -61,6 +69,14 @@ export function href(route: Route): string {
       return `#/s/${e(route.surveyId)}/r/${e(route.roomId)}`;
     case 'entry':
       return `#/s/${e(route.surveyId)}/r/${e(route.roomId)}/e/${e(route.entryId)}`;
+    case 'suggest':
+      return `#/s/${e(route.surveyId)}/suggest`;
+    case 'portfolios':
+      return '#/p';
+    case 'portfolio':
+      return `#/p/${e(route.portfolioId)}`;
+    case 'plan':
+      return `#/p/${e(route.portfolioId)}/plan`;
     case 'catalog':
       return '#/catalog';
     case 'product':

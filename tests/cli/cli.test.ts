@@ -6,7 +6,7 @@ import { promisify } from 'node:util';
 import { describe, expect, it } from 'vitest';
 import { main, type CliIo } from '../../src/cli/main.ts';
 import { calculateSurvey } from '../../src/calc/survey.ts';
-import { demoSurvey } from '../../src/survey/demo.ts';
+import { demoLandlordSurveys, demoPortfolio, demoSurvey } from '../../src/survey/demo.ts';
 
 const run = promisify(execFile);
 
@@ -32,9 +32,9 @@ function fakeIo(files: Record<string, string> = {}, stdin = ''): CliIo & { out: 
   return io;
 }
 
-async function demoFileText(): Promise<string> {
+async function demoFileText(...options: string[]): Promise<string> {
   const io = fakeIo();
-  expect(await main(['demo'], io)).toBe(0);
+  expect(await main(['demo', ...options], io)).toBe(0);
   return io.out;
 }
 
@@ -43,9 +43,27 @@ describe('lampwalk demo', () => {
     const text = await demoFileText();
     const file = JSON.parse(text);
     expect(file.format).toBe('lampwalk-survey-file');
-    expect(file.version).toBe(2);
+    expect(file.version).toBe(3);
     expect(file.surveys).toHaveLength(1);
+    expect(file.portfolios).toEqual([]);
     expect(file.catalog.length).toBeGreaterThan(0);
+  });
+
+  it('with --portfolio: the demo building first, then the landlord layouts, all grouped by the demo portfolio', async () => {
+    const file = JSON.parse(await demoFileText('--portfolio'));
+    expect(file.surveys.map((survey: { id: string }) => survey.id)).toEqual([demoSurvey().id, ...demoLandlordSurveys().map((survey) => survey.id)]);
+    expect(file.portfolios).toEqual([demoPortfolio()]);
+    expect(file.portfolios[0].surveyIds).toEqual(file.surveys.map((survey: { id: string }) => survey.id));
+    const bad = fakeIo();
+    expect(await main(['demo', '--landlord'], bad)).toBe(2);
+    expect(bad.err).toMatch(/demo takes only --portfolio/);
+  });
+
+  it('calc accepts every demo survey of --portfolio, the layouts counted across their units', async () => {
+    const io = fakeIo({ 'demo.json': await demoFileText('--portfolio') });
+    expect(await main(['calc', 'demo.json'], io)).toBe(0);
+    const printed = JSON.parse(io.out).surveys as { surveyId: string }[];
+    expect(printed.map((survey) => survey.surveyId)).toEqual([demoSurvey().id, ...demoLandlordSurveys().map((survey) => survey.id)]);
   });
 });
 

@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { main, type CliIo } from '../../src/cli/main.ts';
 import { calculateSurvey } from '../../src/calc/survey.ts';
 import { demoSurvey } from '../../src/survey/demo.ts';
-import type { SurveyFile } from '../../src/survey/format.ts';
+import { fileFormatVersion, type SurveyFile } from '../../src/survey/format.ts';
 import { StoreError, openSurveyStore, startLampwalk, type SurveyStore } from '../../src/survey/store.ts';
 import { dumpDatabase } from './fixtures/harness.ts';
 import { bytesOf, countTransactions, fakeEnvironment, newPhoto, testClock, uniqueName } from './helpers.ts';
@@ -26,7 +26,7 @@ async function failure(promise: Promise<unknown>): Promise<StoreError> {
 /** A store with the demo, a second survey, photos of rooms and entries, and a product of the user's own. */
 async function fullStore(): Promise<SurveyStore> {
   const clock = testClock('2027-01-10T08:00:00.000Z');
-  const { store } = await startLampwalk({ databaseName: uniqueName('backup-src'), environment: fakeEnvironment(), clock: clock.now });
+  const { store } = await startLampwalk({ databaseName: uniqueName('backup-src'), environment: fakeEnvironment(), clock: clock.now, seedDemoPortfolio: false });
   const { rooms, id: _id, createdAt: _c, updatedAt: _u, ...fields } = demoSurvey();
   const second = await store.createSurvey({ ...fields, name: 'Annex', units: 'si', locale: 'en-GB' });
   const { entries, id: _roomId, ...roomFields } = rooms[0]!;
@@ -159,7 +159,7 @@ describe('a tampered or wrong file', () => {
     {
       what: 'a file from a newer Lampwalk',
       change: (file) => {
-        file.version = 3;
+        file.version = fileFormatVersion + 1;
       },
       path: 'version',
       words: 'written by a newer Lampwalk',
@@ -171,7 +171,7 @@ describe('a tampered or wrong file', () => {
     const file = tree((await source.exportEverything()).text);
     change(file);
     const name = uniqueName('tampered');
-    const { store: target } = await startLampwalk({ databaseName: name, environment: fakeEnvironment() });
+    const { store: target } = await startLampwalk({ databaseName: name, environment: fakeEnvironment(), seedDemoPortfolio: false });
     await target.updateEntry('demo-shop-troffers', { count: 13 });
     await target.whenIdle();
     const before = await dumpDatabase(name);
@@ -187,7 +187,7 @@ describe('a tampered or wrong file', () => {
 
   it('text that is not JSON is refused at "(file)", nothing written', async () => {
     const name = uniqueName('not-json');
-    const { store } = await startLampwalk({ databaseName: name, environment: fakeEnvironment() });
+    const { store } = await startLampwalk({ databaseName: name, environment: fakeEnvironment(), seedDemoPortfolio: false });
     const text = (await store.exportEverything()).text;
     const before = await dumpDatabase(name);
     const error = await failure(store.importBackup(text.slice(0, text.length / 2)));

@@ -14,6 +14,7 @@ import {
   storageUsage,
   webStorageMarker,
 } from '../../src/survey/durability.ts';
+import { demoLandlordSurveys, demoPortfolio, demoSurvey } from '../../src/survey/demo.ts';
 import { exampleCatalog } from '../../src/survey/examples.ts';
 import { toStoreError } from '../../src/survey/store-error.ts';
 import { StoreError, startLampwalk } from '../../src/survey/store.ts';
@@ -106,7 +107,9 @@ describe('eviction', () => {
     // Restoring the backup, then setting up, makes it a returning device again.
     await after.store.importBackup(backup.text);
     await after.store.initialise({ exampleCatalog: false, demoSurvey: false });
-    expect((await after.store.listSurveys()).map((survey) => survey.id)).toEqual(['demo-tallowmere']);
+    // Everything first run seeded comes back from the backup: the demo survey, the landlord layouts and their portfolio.
+    expect((await after.store.listSurveys()).map((survey) => survey.id).sort()).toEqual([demoSurvey(), ...demoLandlordSurveys()].map((survey) => survey.id).sort());
+    expect((await after.store.listPortfolios()).map((portfolio) => portfolio.id)).toEqual([demoPortfolio().id]);
     expect(environment.local.value).not.toBeNull();
     const name = after.store.databaseName;
     after.store.close();

@@ -39,20 +39,22 @@ function problems(input: unknown): { path: string; message: string }[] {
   return result.ok ? [] : result.problems;
 }
 
-describe('file format version 2', () => {
-  it('is the version written, with a photos list', () => {
-    expect(fileFormatVersion).toBe(2);
+describe('file format version 2 (photos) and 3 (portfolios)', () => {
+  it('is the version written, with photos and portfolios lists', () => {
+    expect(fileFormatVersion).toBe(3);
     const file = makeSurveyFile([], [], new Date(Date.UTC(2026, 0, 1)));
-    expect(file.version).toBe(2);
+    expect(file.version).toBe(3);
     expect(file.photos).toEqual([]);
+    expect(file.portfolios).toEqual([]);
   });
 
-  it('a version-1 file is read and migrated to version 2 with no photos', () => {
-    const { photos: _photos, ...v1 } = fileWith([]);
+  it('a version-1 file is read and migrated to the current version with no photos and no portfolios', () => {
+    const { photos: _photos, portfolios: _portfolios, ...v1 } = fileWith([]);
     const result = parseSurveyFile({ ...v1, version: 1 });
     if (!result.ok) throw new Error(JSON.stringify(result.problems));
-    expect(result.file.version).toBe(2);
+    expect(result.file.version).toBe(3);
     expect(result.file.photos).toEqual([]);
+    expect(result.file.portfolios).toEqual([]);
     expect(result.file.surveys[0]).toEqual(demoSurvey());
   });
 

@@ -1,13 +1,17 @@
 /**
  * Schema migrations, opening order and version checks. Each fixture in
  * `fixtures/` is a database exactly as a released schema version wrote it;
- * every one is opened with today's code and every record must survive. (With
- * schema version 1 only, the v1 fixture checks the harness and that opening
- * an existing database changes nothing.)
+ * every one is opened with today's code: every fixture of a version older
+ * than this build's is upgraded to the current version (its stores and
+ * indexes must then be exactly those a new database gets) and every record
+ * must survive. New fixtures are picked up from the folder by name (`vN.json`).
+ * (With schema version 1 only, the v1 fixture checks the harness and that
+ * opening an existing database changes nothing.) The run prints
+ * "migrations: upgraded from versions [...] to N, M records checked".
  */
 import { readdirSync, readFileSync } from 'node:fs';
 import { openDB } from 'idb';
-import { describe, expect, it, vi } from 'vitest';
+import { afterAll, describe, expect, it, vi } from 'vitest';
 import { calculateSurvey } from '../../src/calc/survey.ts';
 import { lampwalkMigrations, schemaVersion, type Migration } from '../../src/survey/db.ts';
 import { StoreError, openSurveyStore, startLampwalk } from '../../src/survey/store.ts';
@@ -75,8 +79,19 @@ describe('fixtures', () => {
   });
 });
 
+/** What the upgrade loop below checked, printed at the end. */
+const upgrades = { fromVersions: new Set<number>(), recordsChecked: 0, currentVersionRecords: 0 };
+
+afterAll(() => {
+  const from = [...upgrades.fromVersions].sort((a, b) => a - b);
+  console.log(
+    `migrations: upgraded from versions [${from.join(', ')}] to ${schemaVersion}, ${upgrades.recordsChecked} records checked` +
+      ` (and ${upgrades.currentVersionRecords} records of the version ${schemaVersion} fixture reopened unchanged)`,
+  );
+});
+
 describe.each(fixtureVersions)('a database written by schema version %i', (version) => {
-  it('opens with this build and every record survives', async () => {
+  it(version < schemaVersion ? 'upgrades to the current version with this build and every record survives' : 'opens with this build and every record survives', async () => {
     const fixture = loadFixture(version);
     const name = uniqueName(`v${version}`);
     await writeFixtureDatabase(name, fixture);
@@ -98,6 +113,17 @@ describe.each(fixtureVersions)('a database written by schema version %i', (versi
       }
     }
     expect(checked).toBeGreaterThan(20);
+    if (version < schemaVersion) {
+      // Upgraded all the way: exactly the stores and indexes a new database of this build has.
+      const freshName = uniqueName(`v${version}-fresh`);
+      const fresh = await openSurveyStore({ databaseName: freshName, environment: fakeEnvironment() });
+      fresh.close();
+      expect(structureOf(after)).toEqual(structureOf(await dumpDatabase(freshName)));
+      upgrades.fromVersions.add(version);
+      upgrades.recordsChecked += checked;
+    } else {
+      upgrades.currentVersionRecords += checked;
+    }
   });
 
   it('its surveys load, calculate, and its photos, trash and settings read back through the store', async () => {

@@ -8,7 +8,7 @@
 import { formatISO } from 'date-fns';
 import { describe, expect, it } from 'vitest';
 import { calculateSurvey } from '../../src/calc/survey.ts';
-import { demoSurvey } from '../../src/survey/demo.ts';
+import { demoLandlordSurveys, demoPortfolio, demoSurvey } from '../../src/survey/demo.ts';
 import { exampleCatalog } from '../../src/survey/examples.ts';
 import type { FixtureEntry, StoredEntry } from '../../src/survey/model.ts';
 import { assembleSurvey, ordersBetween, splitSurvey } from '../../src/survey/records.ts';
@@ -20,8 +20,9 @@ function iso(utc: string): string {
   return formatISO(new Date(utc));
 }
 
-async function demoStore(clock = testClock()): Promise<SurveyStore> {
-  const { store } = await startLampwalk({ databaseName: uniqueName('repo'), environment: fakeEnvironment(), clock: clock.now });
+/** A fresh store holding the demo survey alone (the landlord scenario left out), or all the demo data. */
+async function demoStore(clock = testClock(), seedDemoPortfolio = false): Promise<SurveyStore> {
+  const { store } = await startLampwalk({ databaseName: uniqueName('repo'), environment: fakeEnvironment(), clock: clock.now, seedDemoPortfolio });
   return store;
 }
 
@@ -66,8 +67,8 @@ describe('records: split and assemble', () => {
 });
 
 describe('first run', () => {
-  it('seeds the example catalog (marked as examples) and the demo survey, which calculates', async () => {
-    const store = await demoStore();
+  it('seeds the example catalog (marked as examples), the demo survey, the landlord layouts and the demo portfolio, which calculate', async () => {
+    const store = await demoStore(testClock(), true);
     const catalog = await store.listCatalog();
     expect(catalog.map((product) => product.id).sort()).toEqual(exampleCatalog.map((product) => product.id).sort());
     expect(catalog.every((product) => product.example)).toBe(true);
@@ -76,6 +77,13 @@ describe('first run', () => {
     const survey = await store.loadSurvey('demo-tallowmere');
     expect(survey).toEqual(demoSurvey());
     expect(calculateSurvey(survey)).toEqual(calculateSurvey(demoSurvey()));
+    // The landlord scenario, walked earlier, lists after the demo survey and reads back exactly.
+    expect((await store.listSurveys()).map((item) => item.id)).toEqual(['demo-tallowmere', ...demoLandlordSurveys().map((item) => item.id).sort((a, b) => {
+      const name = (id: string) => demoLandlordSurveys().find((item) => item.id === id)?.name ?? '';
+      return name(a).localeCompare(name(b));
+    })]);
+    for (const layout of demoLandlordSurveys()) expect(await store.loadSurvey(layout.id)).toEqual(layout);
+    expect(await store.listPortfolios()).toEqual([demoPortfolio()]);
     // Seeding is not a user edit.
     expect((await store.settings())?.editsSinceBackup).toBe(0);
   });
@@ -85,10 +93,13 @@ describe('first run', () => {
     const environment = fakeEnvironment();
     const first = await startLampwalk({ databaseName: name, environment });
     await first.store.deleteSurvey('demo-tallowmere');
+    await first.store.deletePortfolio(demoPortfolio().id);
     first.store.close();
     const second = await startLampwalk({ databaseName: name, environment });
     expect(second.state).toBe('returning');
-    expect(await second.store.listSurveys()).toEqual([]);
+    // The deleted demo survey and portfolio stay deleted; the layouts are there once each.
+    expect((await second.store.listSurveys()).map((survey) => survey.id).sort()).toEqual(demoLandlordSurveys().map((survey) => survey.id).sort());
+    expect(await second.store.listPortfolios()).toEqual([]);
     expect(await second.store.listCatalog()).toHaveLength(exampleCatalog.length);
   });
 });

@@ -250,14 +250,15 @@ describe('makeSurveyFile', () => {
     const file = makeSurveyFile([], [], new Date(Date.UTC(2024, 4, 1, 9, 30)));
     expect(file).toEqual({
       format: 'lampwalk-survey-file',
-      version: 2,
+      version: 3,
       exportedAt: '2024-05-01T09:30:00.000Z',
       surveys: [],
       catalog: [],
       photos: [],
+      portfolios: [],
     });
     expect(fileFormatName).toBe('lampwalk-survey-file');
-    expect(fileFormatVersion).toBe(2);
+    expect(fileFormatVersion).toBe(3);
   });
 
   it('refuses an invalid date, naming exportedAt', () => {
@@ -320,6 +321,21 @@ describe('bad values are refused at their exact path', () => {
       'must be a number greater than 0 and at most 100000 (got -40)',
     );
     expect(message).toBe('must be a number greater than 0 and at most 100000 (got -40)');
+  });
+
+  it('a product whose lowest input voltage lies above its highest', () => {
+    // A 120–277 V universal driver is a common rating; 277 V down to 120 V is a typing slip (common practice, no published source).
+    const tree = fileTree();
+    at(tree, 'catalog', 0).inputVoltsMin = 277;
+    at(tree, 'catalog', 0).inputVoltsMax = 120;
+    expect(problemsOf(parseSurveyFile(tree))).toEqual([
+      { path: 'catalog[0].inputVoltsMax', message: 'must not be below the lowest input voltage of 277 V (got 120)' },
+    ]);
+    at(tree, 'catalog', 0).inputVoltsMax = 277;
+    expect(parseSurveyFile(tree).ok).toBe(true);
+    // A bad value is reported once, by its own range check.
+    at(tree, 'catalog', 0).inputVoltsMax = -5;
+    expect(problemsOf(parseSurveyFile(tree)).map((p) => p.path)).toEqual(['catalog[0].inputVoltsMax']);
   });
 
   it('annual hours of 9000', () => {
@@ -447,12 +463,12 @@ describe('bad values are refused at their exact path', () => {
 
   it('a newer version: refused, saying to open it with the newer Lampwalk', () => {
     const tree = fileTree();
-    tree.version = 3;
+    tree.version = 4;
     tree.sketches = [];
     const problems = problemsOf(parseSurveyFile(tree));
     expect(problems).toHaveLength(1);
     expect(problems[0]?.path).toBe('version');
-    expect(problems[0]?.message).toContain('written by a newer Lampwalk (file format version 3)');
+    expect(problems[0]?.message).toContain('written by a newer Lampwalk (file format version 4)');
     expect(problems[0]?.message).toContain('Open it with the newer Lampwalk');
   });
 
@@ -460,7 +476,7 @@ describe('bad values are refused at their exact path', () => {
     for (const version of ['1', 0, 1.5, null]) {
       const tree = fileTree();
       tree.version = version;
-      expectProblem(parseSurveyFile(tree), 'version', 'must be the file format version, a whole number from 1 to 2 for this Lampwalk');
+      expectProblem(parseSurveyFile(tree), 'version', 'must be the file format version, a whole number from 1 to 3 for this Lampwalk');
     }
   });
 

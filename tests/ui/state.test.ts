@@ -39,8 +39,8 @@ describe('reading typed numbers', () => {
     expect(readNumber('0', { min: 0, max: 10, minExclusive: true })).toEqual({ ok: false, message: 'Must be more than 0 and at most 10.' });
   });
 
-  it('points out a number that may have been meant with a thousands separator', () => {
-    expect(readNumber('1,500', { min: 0, max: 10_000 })).toMatchObject({ ok: true, value: 1.5, note: expect.stringContaining('for 1500') });
+  it('refuses a number that may have been meant with a thousands separator', () => {
+    expect(readNumber('1,500', { min: 0, max: 10_000 })).toMatchObject({ ok: false, message: expect.stringContaining('for 1500') });
     expect(readNumber('1,500', { min: 0, max: 10_000, integer: true })).toMatchObject({ ok: false, message: expect.stringContaining('for 1500') });
   });
 });

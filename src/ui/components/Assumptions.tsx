@@ -7,6 +7,7 @@ import type { SurveyResult } from '../../calc/survey.ts';
 import { buildingOperatingDefaults, hvacInteractiveDefaults } from '../../calc/energy.ts';
 import { egridSubregions, ukGridFactors } from '../../calc/emissions.ts';
 import type { GridFactorChoice, Survey } from '../../survey/model.ts';
+import { changeFields } from '../../survey/store.ts';
 import { defaultDiscountRatePerYear, newestUkYear } from '../state/defaults.ts';
 import { rules } from '../state/fields.ts';
 import type { UiFigures } from '../state/format.ts';
@@ -74,15 +75,9 @@ export function Assumptions(props: { session: SurveySession; survey: Survey; res
   const s = survey.savings;
   const hvac = hvacInteractiveDefaults(survey.buildingType, survey.heatingType);
   const operating = buildingOperatingDefaults[survey.buildingType];
-  const money = (patch: Partial<Survey['money']>) => session.updateSurvey({ money: { ...m, ...patch } });
-  const savings = (patch: { [K in keyof Survey['savings']]?: Survey['savings'][K] | undefined }) => {
-    const next: Record<string, unknown> = { ...s };
-    for (const [key, value] of Object.entries(patch)) {
-      if (value === undefined) delete next[key];
-      else next[key] = value;
-    }
-    return session.updateSurvey({ savings: next as Survey['savings'] });
-  };
+  // Only the fields changed are saved (another window may change the others).
+  const money = (patch: Partial<Survey['money']>) => session.updateSurvey({ money: changeFields<Survey['money']>(patch) });
+  const savings = (patch: { [K in keyof Survey['savings']]?: Survey['savings'][K] | undefined }) => session.updateSurvey({ savings: changeFields<Survey['savings']>(patch) });
   const required = (apply: (value: number) => string | null) => (value: number | undefined) => (value === undefined ? 'Enter a number.' : apply(value));
   const currencyCode = m.currency;
   return (

@@ -5,6 +5,7 @@
  * then is it written — in one transaction, whole or not at all.
  */
 import { useId, useState } from 'preact/hooks';
+import { checkBackupSize } from '../../survey/backup.ts';
 import type { ClashChoice, ImportPreview, ImportReport } from '../../survey/store.ts';
 import { useApp } from '../state/context.ts';
 import { messageOf } from '../state/errors.ts';
@@ -41,6 +42,8 @@ export function BackupImport(props: { onImported: (report: ImportReport) => Prom
     setProblem(null);
     setBusy(true);
     try {
+      // Checked before the file is read: a huge file is never loaded into memory.
+      checkBackupSize(file.size);
       const text = await file.text();
       setPending({ fileName: file.name, text, preview: await store.previewImport(text) });
     } catch (error) {

@@ -3,6 +3,7 @@
  * (enclosed, dimmed, damp, emergency, insulation) and the circuit it is on.
  */
 import type { FixtureConditions, FixtureEntry } from '../../survey/model.ts';
+import { changeFields, type Patch } from '../../survey/store.ts';
 import { rules } from '../state/fields.ts';
 import { dimmerLabels, moistureLabels, optionsOf } from '../state/labels.ts';
 import type { SurveySession } from '../state/session.ts';
@@ -16,12 +17,11 @@ import { Choice, NumberField, SelectField, TextField, Toggle } from './fields.ts
 export function ConditionsEditor(props: { session: SurveySession; entry: FixtureEntry; locale: string }) {
   const { session, entry, locale } = props;
   const c = entry.conditions;
-  const set = (patch: Partial<FixtureConditions>) => session.updateEntry(entry.id, { conditions: { ...c, ...patch } });
+  // Only the fields changed are saved, so another window's change to another condition is kept.
+  const set = (patch: Patch<FixtureConditions>) => session.updateEntry(entry.id, { conditions: changeFields(patch) });
   const optional = (key: 'breakerAmps' | 'circuitLabel') => (value: number | string | undefined) => {
-    const next: Record<string, unknown> = { ...c };
-    if (value === undefined || value === '') delete next[key];
-    else next[key] = value;
-    return session.updateEntry(entry.id, { conditions: next as unknown as FixtureConditions });
+    if (value === undefined || value === '') return set({ [key]: undefined });
+    return key === 'breakerAmps' ? (typeof value === 'number' ? set({ breakerAmps: value }) : 'Enter a number.') : set({ circuitLabel: String(value) });
   };
   return (
     <div class="conditions">

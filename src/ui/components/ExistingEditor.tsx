@@ -2,6 +2,7 @@
 import { findTypicalEquipment, typicalExistingEquipment } from '../../calc/equipment.ts';
 import type { EntryResult } from '../../calc/survey.ts';
 import type { ExistingEquipment, FixtureEntry } from '../../survey/model.ts';
+import { changeFields, type Patch } from '../../survey/store.ts';
 import { existingFromTypical } from '../state/defaults.ts';
 import { rules } from '../state/fields.ts';
 import type { UiFigures } from '../state/format.ts';
@@ -28,13 +29,11 @@ export function ExistingEditor(props: { session: SurveySession; entry: FixtureEn
   const { session, entry, result, locale, fig } = props;
   const e = entry.existing;
   const row = findTypicalEquipment(e.technology, e.ballast, e.lampsPerFixture, e.ratedWattsPerLamp);
-  const set = (patch: Partial<ExistingEquipment>) => session.updateEntry(entry.id, { existing: { ...e, ...patch } });
-  const optional = (key: keyof ExistingEquipment) => (value: number | undefined) => {
-    const next: Record<string, unknown> = { ...e };
-    if (value === undefined) delete next[key];
-    else next[key] = value;
-    return session.updateEntry(entry.id, { existing: next as unknown as ExistingEquipment });
-  };
+  // Only the fields changed are saved, so another window's change to another field is kept.
+  const set = (patch: Patch<ExistingEquipment>) => session.updateEntry(entry.id, { existing: changeFields(patch) });
+  const optional =
+    (key: 'fixtureInputWatts' | 'meteredWattsPerFixture' | 'lumensPerLamp' | 'ballastYear' | 'lampPrice') => (value: number | undefined) =>
+      set({ [key]: value });
   const required = (key: 'lampsPerFixture' | 'ratedWattsPerLamp') => (value: number | undefined) => (value === undefined ? 'Enter a number.' : set({ [key]: value }));
   const options = [...typicalExistingEquipment.map((item) => ({ value: item.key, label: `${item.label} (${item.fixtureInputWatts} W)` })), { value: custom, label: 'Something else (type it in)' }];
   return (
@@ -46,8 +45,8 @@ export function ExistingEditor(props: { session: SurveySession; entry: FixtureEn
         onChange={(key) => {
           const chosen = typicalExistingEquipment.find((item) => item.key === key);
           if (!chosen) return null;
-          const { fixtureInputWatts: _input, lumensPerLamp: _lumens, ...kept } = e;
-          return session.updateEntry(entry.id, { existing: { ...kept, ...existingFromTypical(chosen) } });
+          // The listed equipment's fields, and no input watts or lumens typed for the old one.
+          return set({ ...existingFromTypical(chosen), fixtureInputWatts: undefined, lumensPerLamp: undefined });
         }}
         hint={row ? `Input watts from: ${row.source}.` : 'Not in the built-in list: the input watts are worked out from the lamp watts.'}
         class="field--wide"

@@ -1,6 +1,7 @@
 /** Hours a room's lights burn: one yearly figure, or a week by day (× weeks a year). */
 import { annualHours } from '../../calc/energy.ts';
 import type { HoursOfUse, Room } from '../../survey/model.ts';
+import { changeFields } from '../../survey/store.ts';
 import { rules } from '../state/fields.ts';
 import type { UiFigures } from '../state/format.ts';
 import type { SurveySession } from '../state/session.ts';
@@ -9,7 +10,8 @@ import { Choice, NumberField } from './fields.tsx';
 const days = ['Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat', 'Sun'] as const;
 const dayNames = ['Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday', 'Saturday', 'Sunday'] as const;
 
-type Week = Extract<HoursOfUse, { kind: 'weekly' }>['days'];
+type WeeklyHours = Extract<HoursOfUse, { kind: 'weekly' }>;
+type Week = WeeklyHours['days'];
 
 /**
  * Hours of use of a room: per year or week by day.
@@ -71,7 +73,8 @@ export function HoursEditor(props: { session: SurveySession; room: Room; locale:
                   if (next === undefined) return 'Enter a number.';
                   const week = [...hours.days] as Week;
                   week[index] = next;
-                  return set({ ...hours, days: week });
+                  // The week only (the weeks a year may have been changed in another window).
+                  return session.updateRoom(room.id, { hours: changeFields<WeeklyHours>({ kind: 'weekly', days: week }) });
                 }}
               />
             ))}
@@ -82,10 +85,7 @@ export function HoursEditor(props: { session: SurveySession; room: Room; locale:
             rule={rules.weeksPerYear}
             locale={locale}
             hint="Leave empty for a full year (52.14 weeks)."
-            onChange={(weeksPerYear) => {
-              const { weeksPerYear: _old, ...rest } = hours;
-              return set(weeksPerYear === undefined ? rest : { ...rest, weeksPerYear });
-            }}
+            onChange={(weeksPerYear) => session.updateRoom(room.id, { hours: changeFields<WeeklyHours>({ kind: 'weekly', weeksPerYear }) })}
           />
         </>
       )}

@@ -20,7 +20,7 @@ function Logo() {
   );
 }
 
-type Section = 'surveys' | 'catalog' | 'settings';
+type Section = 'surveys' | 'portfolios' | 'catalog' | 'settings';
 
 /**
  * The bar at the top of every screen: the name, surveys, catalog and settings.
@@ -28,7 +28,7 @@ type Section = 'surveys' | 'catalog' | 'settings';
  * @example <TopBar current="catalog" /> //=> the bar with Catalog marked as the current page
  */
 export function TopBar(props: { current: Section }) {
-  const link = (section: Section, route: Route, label: string, icon: 'list' | 'box' | 'gear') => (
+  const link = (section: Section, route: Route, label: string, icon: 'list' | 'copy' | 'box' | 'gear') => (
     <a class="topnav-link" href={href(route)} aria-current={props.current === section ? 'page' : undefined}>
       <Icon name={icon} size={22} />
       <span>{label}</span>
@@ -45,6 +45,7 @@ export function TopBar(props: { current: Section }) {
       </a>
       <nav class="topnav" aria-label="Main">
         {link('surveys', { name: 'surveys' }, 'Surveys', 'list')}
+        {link('portfolios', { name: 'portfolios' }, 'Portfolios', 'copy')}
         {link('catalog', { name: 'catalog' }, 'Catalog', 'box')}
         {link('settings', { name: 'settings' }, 'Settings', 'gear')}
       </nav>

@@ -2,6 +2,8 @@
  * The notice area at the bottom of the screen: what just happened, and an
  * Undo after a delete. A notice stays while it has focus or the pointer is on
  * it; deleted things can also be brought back from Settings › Recently deleted.
+ * An error (e.g. the device is full) stays until it is closed: it says what to
+ * do, and the user must have time to read it.
  */
 import { useEffect, useRef, useState } from 'preact/hooks';
 import type { Notice } from '../state/context.ts';
@@ -22,7 +24,7 @@ export function Notices(props: { notice: Notice | null; onDismiss: () => void })
 
   useEffect(() => {
     window.clearTimeout(timer.current);
-    if (notice && !held) timer.current = window.setTimeout(onDismiss, showMs);
+    if (notice && !held && notice.tone !== 'error') timer.current = window.setTimeout(onDismiss, showMs);
     return () => window.clearTimeout(timer.current);
   }, [notice, held]);
 

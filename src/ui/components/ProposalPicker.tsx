@@ -7,11 +7,12 @@
 import { useMemo, useState } from 'preact/hooks';
 import type { CatalogProduct, FixtureEntry, ProposedProduct, Room, Survey } from '../../survey/model.ts';
 import { proposalFromCatalog } from '../../survey/examples.ts';
+import { changeFields } from '../../survey/store.ts';
 import { judgeProducts, type Candidate } from '../state/fit.ts';
 import type { UiFigures } from '../state/format.ts';
 import type { SurveySession } from '../state/session.ts';
 import { Icon } from './Icon.tsx';
-import { ProductFields, type ProductSpec } from './ProductFields.tsx';
+import { ProductFields, type ProductPatch } from './ProductFields.tsx';
 
 /** Products offered at once (the best fits); the rest are one tap further. */
 const shownAtOnce = 4;
@@ -62,7 +63,7 @@ export function ProposalPicker(props: { session: SurveySession; survey: Survey; 
     const { catalogId: _link, ...spec } = base;
     session.updateEntry(entry.id, { proposed: { ...spec, name: `${spec.name} (custom)` } });
   };
-  const editCustom = (patch: Partial<ProductSpec>) => (proposed ? session.updateEntry(entry.id, { proposed: { ...proposed, ...patch } }) : null);
+  const editCustom = (patch: ProductPatch) => (proposed ? session.updateEntry(entry.id, { proposed: changeFields<ProposedProduct>(patch) }) : null);
 
   return (
     <div class="proposal">

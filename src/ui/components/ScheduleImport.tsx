@@ -40,6 +40,12 @@ export function ScheduleImport(props: { session: SurveySession; roomId: string; 
     setBusy(true);
     controller.current = new AbortController();
     try {
+      const { scheduleMaxFileBytes, scheduleTooLargeMessage } = await import('../../export/schedule.ts');
+      // Checked before the file is read: a huge file is never loaded into memory.
+      if (file.size > scheduleMaxFileBytes) {
+        setProblem(`${file.name}: ${scheduleTooLargeMessage}.`);
+        return;
+      }
       const text = await file.text();
       const { previewSchedule } = await import('../../export/index.ts');
       const preview = await previewSchedule(controller.current.signal, text, {

@@ -1,4 +1,5 @@
 /** The headline figures of a survey: what the swap saves, costs and returns. */
+import type { LayoutResult } from '../../calc/portfolio.ts';
 import type { SurveyResult } from '../../calc/survey.ts';
 import type { Survey } from '../../survey/model.ts';
 import type { UiFigures } from '../state/format.ts';
@@ -40,5 +41,65 @@ export function Totals(props: { survey: Survey; result: SurveyResult; fig: UiFig
       <Figure label="IRR" value={text['total-irr']!} testId="total-irr" {...(irrNote ? { note: irrNote } : {})} />
       <Figure label="CO2 avoided" value={text['total-co2']!} testId="total-co2" />
     </dl>
+  );
+}
+
+/**
+ * A survey's result with the totals and economics of every unit of its
+ * layout (room and entry figures stay those of the surveyed unit), so the
+ * headline figures and the cash-flow chart speak for all units.
+ *
+ * @example allUnitsResult(result, calculateLayout(survey, result)).totals.fixtures //=> fixtures across all units
+ */
+export function allUnitsResult(result: SurveyResult, layout: LayoutResult): SurveyResult {
+  return { ...result, totals: layout.totals, economics: layout.economics };
+}
+
+/**
+ * Per unit beside all units, for a survey that stands for several units.
+ *
+ * @example <UnitTotals survey={survey} layout={calculateLayout(survey, result)} fig={fig} /> //=> a table: fixtures, kWh, kW, money, cost, payback, NPV, CO2 per unit and for all units
+ */
+export function UnitTotals(props: { survey: Survey; layout: LayoutResult; fig: UiFigures }) {
+  const { layout, fig } = props;
+  const one = layout.perUnit;
+  const all = layout.totals;
+  const unitNpv = layout.unitResult.economics.netPresentValue;
+  const rows: { id: string; label: string; perUnit: string; allUnits: string }[] = [
+    { id: 'fixtures', label: 'Fixtures', perUnit: fig.number(one.fixtures), allUnits: fig.number(all.fixtures) },
+    { id: 'kwh', label: 'Energy saved', perUnit: fig.kwhPerYear(one.savings.kwhPerYear), allUnits: fig.kwhPerYear(all.savings.kwhPerYear) },
+    { id: 'kw', label: 'Peak demand saved', perUnit: fig.kw(one.savings.peakKw), allUnits: fig.kw(all.savings.peakKw) },
+    { id: 'money', label: 'Money saved', perUnit: `${fig.money(one.money.totalPerYear)}/yr`, allUnits: `${fig.money(all.money.totalPerYear)}/yr` },
+    { id: 'cost', label: 'Project cost, net', perUnit: fig.money(one.money.cost.net), allUnits: fig.money(all.money.cost.net) },
+    { id: 'payback', label: 'Simple payback', perUnit: fig.payback(one.money.simplePaybackYears), allUnits: fig.payback(all.money.simplePaybackYears) },
+    { id: 'npv', label: `NPV over ${props.survey.money.analysisYears} years`, perUnit: fig.money(unitNpv), allUnits: fig.money(layout.economics.netPresentValue) },
+    { id: 'co2', label: 'CO2 avoided', perUnit: fig.co2PerYear(one.co2KgPerYear), allUnits: fig.co2PerYear(all.co2KgPerYear) },
+  ];
+  const differing = layout.differingUnits;
+  return (
+    <div class="table-wrap" data-testid="unit-totals">
+      <table>
+        <caption>
+          The surveyed unit and all {fig.number(layout.units)} units
+          {differing > 0 ? ` (${differing} ${differing === 1 ? 'differs' : 'differ'} from the surveyed unit)` : ''}
+        </caption>
+        <thead>
+          <tr>
+            <th scope="col">Figure</th>
+            <th scope="col">Per unit</th>
+            <th scope="col">All {fig.number(layout.units)} units</th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((row) => (
+            <tr key={row.id}>
+              <th scope="row">{row.label}</th>
+              <td data-testid={`unit-${row.id}`}>{row.perUnit}</td>
+              <td data-testid={`all-${row.id}`}>{row.allUnits}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
   );
 }

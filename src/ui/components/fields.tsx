@@ -147,11 +147,16 @@ export function TextField(props: TextFieldProps) {
     const refused = props.onChange(typed);
     setMessage(typeof refused === 'string' ? refused : null);
   };
+  // Leaving the field: show the saved text again (a save that failed while typing must not stay on screen as if kept).
+  const onBlur = () => {
+    if (message === null) setText(props.value);
+  };
   const shared = {
     id,
     ref: element,
     value: text,
     onInput,
+    onBlur,
     'aria-invalid': message ? ('true' as const) : ('false' as const),
     'aria-describedby': [props.hint ? `${id}-hint` : '', `${id}-msg`].filter(Boolean).join(' '),
     'data-testid': props.testId,

@@ -10,6 +10,7 @@ import { NumberField, SelectField, TextField } from '../components/fields.tsx';
 import { Section } from '../components/Section.tsx';
 import { Icon } from '../components/Icon.tsx';
 import { Screen } from '../components/Layout.tsx';
+import { inputVoltsText } from '../components/ProductFields.tsx';
 import { go, href } from '../router.ts';
 import { useApp } from '../state/context.ts';
 import { messageOf } from '../state/errors.ts';
@@ -29,6 +30,7 @@ function ProductRow(props: { product: CatalogProduct; locale: string }) {
           <span class="row-line">
             {product.unitsPerFixture > 1 ? `${product.unitsPerFixture} × ` : ''}
             {number(product.wattsPerUnit)} W, {number(product.lumensPerUnit)} lm, {product.cctKelvin} K, CRI {product.cri}
+            {inputVoltsText(product) ? `, ${inputVoltsText(product)}` : ''}
             {flags.length > 0 ? ` · ${flags.join(', ')}` : ''}
           </span>
           {product.example && <span class="tag">example</span>}

@@ -1,7 +1,7 @@
 /** One catalog product, edited in place (saved as typed), and retired when no longer offered. */
 import { useEffect, useState } from 'preact/hooks';
 import type { CatalogProduct } from '../../survey/model.ts';
-import type { NewProduct } from '../../survey/store.ts';
+import type { NewProduct, Patch } from '../../survey/store.ts';
 import { catalogProductSchema, problemsAgainst } from '../../survey/validate.ts';
 import { TextField, Toggle } from '../components/fields.tsx';
 import { Section } from '../components/Section.tsx';
@@ -11,6 +11,7 @@ import { SaveStatus } from '../components/SaveStatus.tsx';
 import { useApp } from '../state/context.ts';
 import { messageOf } from '../state/errors.ts';
 import { registerQueue } from '../state/flush.ts';
+import { applyPatch } from '../state/session.ts';
 import { SaveQueue, type QueueStatus } from '../state/queue.ts';
 
 const queue = new SaveQueue(messageOf);
@@ -32,14 +33,15 @@ export function ProductScreen(props: { productId: string }) {
     store.getProduct(props.productId).then(setProduct, (failure: unknown) => setError(messageOf(failure)));
   }, [props.productId]);
 
-  const change = (patch: Partial<ProductSpec & Pick<CatalogProduct, 'retired' | 'sku'>>): string | null => {
+  const change = (patch: Patch<ProductSpec & Pick<CatalogProduct, 'retired' | 'sku'>>): string | null => {
     if (!product) return null;
-    const next = { ...product, ...patch };
+    // A field given as undefined is removed (an optional value emptied).
+    const next = applyPatch<CatalogProduct>(product, patch);
     const [problem] = problemsAgainst(catalogProductSchema, next);
     if (problem) return `${problem.path}: ${problem.message}`;
     setProduct(next);
     queue
-      .patch(`product:${product.id}`, patch as Partial<NewProduct>, (merged) => store.updateProduct(product.id, merged))
+      .patch(`product:${product.id}`, patch as Patch<NewProduct>, (merged) => store.updateProduct(product.id, merged))
       .catch(() => store.getProduct(product.id).then(setProduct, () => undefined));
     return null;
   };

@@ -108,7 +108,7 @@ function RecentlyDeleted() {
   const date = new Intl.DateTimeFormat(preferences.locale, { dateStyle: 'medium', timeStyle: 'short' });
   if (items === null) return <p class="quiet">Opening…</p>;
   if (items.length === 0) return <p class="quiet">Nothing deleted in the last 30 days.</p>;
-  const kinds = { survey: 'Survey', room: 'Room', entry: 'Fixture', photo: 'Photo' } as const;
+  const kinds = { survey: 'Survey', room: 'Room', entry: 'Fixture', photo: 'Photo', portfolio: 'Portfolio' } as const;
   return (
     <ul class="rows">
       {items.map((item) => (

@@ -9,9 +9,10 @@ import { useApp } from '../state/context.ts';
 import { useSurveySession } from '../state/useSession.ts';
 import { EntryScreen } from './EntryScreen.tsx';
 import { RoomScreen } from './RoomScreen.tsx';
+import { SuggestScreen } from './SuggestScreen.tsx';
 import { SurveyScreen } from './SurveyScreen.tsx';
 
-export type SurveyRoute = Extract<Route, { name: 'survey' | 'room' | 'entry' }>;
+export type SurveyRoute = Extract<Route, { name: 'survey' | 'room' | 'entry' | 'suggest' }>;
 
 function Missing(props: { title: string; text: string; back: Route; backLabel: string }) {
   return (
@@ -39,6 +40,7 @@ export function SurveyArea(props: { route: SurveyRoute }) {
     );
   }
   if (route.name === 'survey') return <SurveyScreen session={session} snapshot={snapshot} />;
+  if (route.name === 'suggest') return <SuggestScreen session={session} snapshot={snapshot} />;
   const roomIndex = snapshot.survey.rooms.findIndex((room) => room.id === route.roomId);
   const room = snapshot.survey.rooms[roomIndex];
   const back: Route = { name: 'survey', surveyId: route.surveyId };

@@ -3,7 +3,8 @@
  * rooms with their savings and warnings, the hazards to deal with, and the
  * details, assumptions and exports.
  */
-import { useState } from 'preact/hooks';
+import { useMemo, useState } from 'preact/hooks';
+import { calculateLayout, type LayoutResult } from '../../calc/portfolio.ts';
 import type { Severity } from '../../calc/warnings.ts';
 import { AddRoom } from '../components/AddRoom.tsx';
 import { Assumptions } from '../components/Assumptions.tsx';
@@ -14,10 +15,11 @@ import { Icon } from '../components/Icon.tsx';
 import { Screen } from '../components/Layout.tsx';
 import { RoomList } from '../components/RoomList.tsx';
 import { SaveStatus } from '../components/SaveStatus.tsx';
-import { Totals } from '../components/Totals.tsx';
+import { LayoutEditor } from '../components/LayoutEditor.tsx';
+import { allUnitsResult, Totals, UnitTotals } from '../components/Totals.tsx';
 import { WarningBadges, WarningGroups } from '../components/Warnings.tsx';
 import { SurveyDetails } from '../components/SurveyDetails.tsx';
-import { go } from '../router.ts';
+import { go, href } from '../router.ts';
 import { useApp } from '../state/context.ts';
 import { messageOf } from '../state/errors.ts';
 import { uiFigures } from '../state/format.ts';
@@ -89,6 +91,16 @@ export function SurveyScreen(props: { session: SurveySession; snapshot: SessionS
   const priceMissing = survey.money.energyRatePerKwh === 0;
   const counts: Record<Severity, number> = result?.warningCounts ?? { danger: 0, caution: 0, advice: 0 };
   const roomNames = new Map(survey.rooms.map((room) => [room.id, room.name]));
+  const units = useMemo((): { layout: LayoutResult | null; error: string | null } => {
+    if (!result || !survey.layout) return { layout: null, error: null };
+    try {
+      return { layout: calculateLayout(survey, result), error: null };
+    } catch (error) {
+      return { layout: null, error: messageOf(error) };
+    }
+  }, [survey, result]);
+  // With a layout, the headline figures and the cash flow are those of every unit.
+  const shown = result && units.layout ? allUnitsResult(result, units.layout) : result;
 
   return (
     <Screen
@@ -104,21 +116,28 @@ export function SurveyScreen(props: { session: SurveySession; snapshot: SessionS
           The figures cannot be worked out: {calcError}
         </p>
       )}
+      {units.error && (
+        <p class="panel panel--alert" role="alert" data-testid="layout-error">
+          The figures for all units cannot be worked out: {units.error}
+        </p>
+      )}
       <div class="overview">
         <div class="overview-main">
-          {result && (
-            <Section title="What the swap does">
+          {result && shown && (
+            <Section title={units.layout ? `What the swap does in all ${fig.number(units.layout.units)} units` : 'What the swap does'}>
               {priceMissing && (
                 <p class="nudge">
                   <Icon name="rethink" size={20} />
                   <span>No energy price yet, so money figures are zero. Enter it under Assumptions.</span>
                 </p>
               )}
-              <Totals survey={survey} result={result} fig={fig} />
+              <Totals survey={survey} result={shown} fig={fig} />
+              {units.layout && <UnitTotals survey={survey} layout={units.layout} fig={fig} />}
               <div class="charts">
                 <RoomEnergyChart rooms={result.rooms} fig={fig} />
-                <CashFlowChart years={result.economics.cashFlows} paybackYears={result.economics.simplePaybackYears} fig={fig} />
+                <CashFlowChart years={shown.economics.cashFlows} paybackYears={shown.economics.simplePaybackYears} fig={fig} />
               </div>
+              {units.layout && <p class="quiet">Room figures and the chart of rooms are for the surveyed unit.</p>}
             </Section>
           )}
           <Section title={`Rooms (${survey.rooms.length})`}>
@@ -138,11 +157,24 @@ export function SurveyScreen(props: { session: SurveySession; snapshot: SessionS
               </button>
             )}
           </Section>
+          <Section title="Choose products">
+            <p class="quiet">Lampwalk can propose, for each fixture, the catalog product with the lowest life-cycle cost that meets every check. Nothing changes until you accept.</p>
+            <a class="button" href={href({ name: 'suggest', surveyId: survey.id })} data-testid="open-suggestions">
+              <Icon name="box" />
+              Suggest products
+            </a>
+          </Section>
           <Section title="Documents and files">
             <ExportPanel session={session} survey={survey} result={result} />
           </Section>
         </div>
       </div>
+      <details class="panel" open={survey.layout !== undefined} data-testid="layout-panel">
+        <summary>
+          <h2>{survey.layout ? `Units with this layout (${fig.number(survey.layout.unitCount)})` : 'One typical unit of many?'}</h2>
+        </summary>
+        <LayoutEditor session={session} survey={survey} />
+      </details>
       <details class="panel" open={survey.site.name === '' && survey.rooms.length === 0}>
         <summary>
           <h2>Site and client</h2>

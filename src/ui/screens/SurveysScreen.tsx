@@ -133,6 +133,10 @@ export function SurveysScreen(props: { evictedSince: string | null | undefined; 
               <Icon name="plus" />
               Start a blank survey
             </button>
+            <a class="button" href={href({ name: 'portfolios' })} data-testid="open-portfolios">
+              <Icon name="copy" />
+              Portfolios: several buildings, one plan
+            </a>
           </div>
           <section class="panel" aria-labelledby="list-heading">
             <h2 id="list-heading">On this device</h2>

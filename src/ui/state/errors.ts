@@ -9,7 +9,11 @@ import { StoreError } from '../../survey/store.ts';
  * @example messageOf(new CalcInputError('count', 'must be a whole number')) //=> 'count: must be a whole number'
  */
 export function messageOf(error: unknown): string {
-  if (error instanceof StoreError) return error.message;
+  if (error instanceof StoreError) {
+    // A full disk: the message says to download a backup; say where the button is.
+    if (error.kind === 'quota') return `${error.message} “Back up everything” is on the surveys list (the Lampwalk home screen).`;
+    return error.message;
+  }
   if (error instanceof CalcInputError) return `${error.field}: ${error.problem}`;
   if (error instanceof Error && error.message) return `Something went wrong: ${error.message}`;
   return 'Something went wrong.';

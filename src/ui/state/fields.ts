@@ -4,7 +4,7 @@
  * nothing out of range reaches the store or the calculation.
  */
 import { CalcInputError } from '../../calc/errors.ts';
-import { parseDecimal } from '../../calc/units.ts';
+import { parseDecimal, thousandsProblem } from '../../calc/units.ts';
 
 /** What a number field accepts. Limits are in the units the field shows. */
 export interface NumberRule {
@@ -18,27 +18,32 @@ export interface NumberRule {
   optional?: boolean;
 }
 
-/** The outcome of reading a field; `note` says how an ambiguous number was read. */
+/** The outcome of reading a field; `note`, when present, says how the number was read. */
 export type FieldReading = { ok: true; value: number | undefined; note?: string } | { ok: false; message: string };
-
-/** "1,500" or "2.250": a separator then exactly three digits — a decimal to Lampwalk, perhaps thousands to the person typing. */
-function looksLikeThousands(text: string): boolean {
-  return /^-?\d{1,3}[.,]\d{3}$/.test(text.trim());
-}
 
 function limit(value: number): string {
   return new Intl.NumberFormat('en-US', { maximumFractionDigits: 3 }).format(value);
 }
 
+/** A message from the calculation's number reader, as a sentence for beside the field. */
+function sentence(problem: string): string {
+  const text = problem.replace(/"([^"]*)"/g, '“$1”');
+  return `${text.charAt(0).toUpperCase()}${text.slice(1)}.`;
+}
+
 /**
- * Reads a typed number against its rule.
+ * Reads a typed number against its rule. Thousands separators are refused
+ * ("1,500" could be 1500 or 1.5), with a message saying what to type.
  *
  * @example readNumber('1,5', { min: 0, max: 10 }) //=> { ok: true, value: 1.5 }
+ * @example readNumber('1,500', { min: 0, max: 10_000 }) //=> { ok: false, message: '“1,500” could be 1500 or 1.5: for 1500, type it with no separator; for 1.5, type 1.5.' }
  */
 export function readNumber(text: string, rule: NumberRule): FieldReading {
   if (text.trim() === '') {
     return rule.optional ? { ok: true, value: undefined } : { ok: false, message: 'Enter a number.' };
   }
+  const thousands = thousandsProblem(text);
+  if (thousands !== null) return { ok: false, message: sentence(thousands) };
   let value: number;
   try {
     value = parseDecimal(text, 'value');
@@ -48,15 +53,13 @@ export function readNumber(text: string, rule: NumberRule): FieldReading {
     }
     throw error;
   }
-  const ambiguous = looksLikeThousands(text);
-  const noSeparator = `“${text.trim()}” reads as ${value}; for ${text.trim().replace(/[.,]/, '')}, type it with no separator.`;
-  if (rule.integer && !Number.isInteger(value)) return { ok: false, message: ambiguous ? `Enter a whole number. ${noSeparator}` : 'Enter a whole number.' };
+  if (rule.integer && !Number.isInteger(value)) return { ok: false, message: 'Enter a whole number.' };
   const low = rule.minExclusive ? value <= rule.min : value < rule.min;
   if (low || value > rule.max) {
     const range = rule.minExclusive ? `more than ${limit(rule.min)} and at most ${limit(rule.max)}` : `between ${limit(rule.min)} and ${limit(rule.max)}`;
     return { ok: false, message: `Must be ${range}.` };
   }
-  return ambiguous ? { ok: true, value, note: noSeparator } : { ok: true, value };
+  return { ok: true, value };
 }
 
 /** Ranges shared by the screens (the same limits as the survey file and the calculation). */

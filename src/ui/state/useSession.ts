@@ -1,7 +1,8 @@
 /** Hooks that open a survey session and follow its changes. */
-import { useEffect, useState } from 'preact/hooks';
+import { useContext, useEffect, useRef, useState } from 'preact/hooks';
 import type { CatalogProduct } from '../../survey/model.ts';
 import type { SurveyStore } from '../../survey/store.ts';
+import { AppContext } from './context.ts';
 import { messageOf } from './errors.ts';
 import { SurveySession, type SessionSnapshot } from './session.ts';
 
@@ -16,6 +17,7 @@ export interface SessionState {
 
 /**
  * Opens (or reuses) the session of `surveyId` and re-renders on every change.
+ * When another window replaces a value edited here, the notice area says so.
  *
  * @example useSurveySession(store, 'demo-tallowmere').snapshot?.survey.name //=> 'Tallowmere Corner — shop and flats (demo)'
  */
@@ -26,6 +28,10 @@ export function useSurveySession(store: SurveyStore, surveyId: string): SessionS
       : { session: null, snapshot: null, error: null },
   );
 
+  const services = useContext(AppContext);
+  const notify = useRef(services?.notify);
+  notify.current = services?.notify;
+
   useEffect(() => {
     let cancelled = false;
     let unsubscribe = () => {};
@@ -33,7 +39,12 @@ export function useSurveySession(store: SurveyStore, surveyId: string): SessionS
       if (current && current !== session) current.dispose();
       current = session;
       setState({ session, snapshot: session.snapshot, error: null });
-      unsubscribe = session.subscribe((snapshot) => setState({ session, snapshot, error: null }));
+      const stopSnapshots = session.subscribe((snapshot) => setState({ session, snapshot, error: null }));
+      const stopNotices = session.onOtherWindow((text) => notify.current?.({ tone: 'info', text }));
+      unsubscribe = () => {
+        stopSnapshots();
+        stopNotices();
+      };
     };
     if (current && current.surveyId === surveyId && current.store === store) follow(current);
     else {
@@ -52,6 +63,22 @@ export function useSurveySession(store: SurveyStore, surveyId: string): SessionS
       unsubscribe();
     };
   }, [store, surveyId]);
+
+  // A tab the browser froze in the background may have missed other windows' messages:
+  // read the survey again whenever the page is shown, so a value replaced meanwhile is shown and announced.
+  useEffect(() => {
+    const session = state.session;
+    if (!session) return;
+    const shown = () => {
+      if (document.visibilityState === 'visible') session.applyChange({ surveyId: session.surveyId, kind: 'layout', ids: [] }).catch(() => undefined);
+    };
+    document.addEventListener('visibilitychange', shown);
+    window.addEventListener('pageshow', shown);
+    return () => {
+      document.removeEventListener('visibilitychange', shown);
+      window.removeEventListener('pageshow', shown);
+    };
+  }, [state.session]);
 
   // Warn before closing the page while edits are still being written.
   useEffect(() => {
