@@ -14,7 +14,6 @@ import { addDays, formatISO, parseISO } from 'date-fns';
 import type * as v from 'valibot';
 import { conflictMessage, exportBackup, importBackup, previewImport, type BackupFile, type ClashChoice, type ImportPreview, type ImportReport } from './backup.ts';
 import { allStores, defaultDatabaseName, openLampwalkDb, settingsKey, tracked, type Connection, type Migration, type OpenHooks, type StoredSettings, type WriteTx } from './db.ts';
-import { demoLandlordSurveys, demoPortfolio, demoSurvey } from './demo.ts';
 import {
   backupStatus,
   browserEnvironment,
@@ -27,7 +26,6 @@ import {
   type StorageUsage,
   type UsageMarker,
 } from './durability.ts';
-import { exampleCatalog } from './examples.ts';
 import type {
   AppSettings,
   CatalogProduct,
@@ -414,6 +412,13 @@ export class SurveyStore {
    */
   async initialise(seed: { exampleCatalog: boolean; demoSurvey: boolean; demoPortfolio?: boolean }): Promise<AppSettings> {
     const stamp = this.stamp();
+    // The demo data and example catalog load only on a first run, before the
+    // transaction (which may await nothing but its own requests), so a
+    // returning start does not carry them.
+    const firstRun = (seed.exampleCatalog || seed.demoSurvey) && (await this.settings()) === null;
+    const [{ exampleCatalog }, { demoLandlordSurveys, demoPortfolio, demoSurvey }] = firstRun
+      ? await Promise.all([import('./examples.ts'), import('./demo.ts')])
+      : [{ exampleCatalog: [] }, { demoLandlordSurveys: () => [], demoPortfolio: null, demoSurvey: null }];
     const settings = await this.connection.write(allStores, 'set up Lampwalk on this device', async (tx) => {
       const existing = await tx.objectStore('settings').get(settingsKey);
       if (existing) return existing;
@@ -427,7 +432,7 @@ export class SurveyStore {
         });
         created.exampleCatalogSeededAt = stamp;
       }
-      if (seed.demoSurvey) {
+      if (seed.demoSurvey && demoSurvey && demoPortfolio) {
         // The demo building, and with the landlord scenario its layouts and the portfolio grouping them.
         const landlord = seed.demoPortfolio ?? true;
         const surveys = [demoSurvey(), ...(landlord ? demoLandlordSurveys() : [])].map((survey) => splitSurvey(survey));
