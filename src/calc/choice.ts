@@ -70,7 +70,7 @@ import {
 } from './lighting.ts';
 import { proposalFromProduct } from './proposal.ts';
 import { spaceFacts, targetLux } from './spaces.ts';
-import { defaultDirtDepreciation, existingLumensPerFixture, floorOf, housingEfficiency as housingEfficiencyOf, surveyFactors } from './survey.ts';
+import { checkMoney, defaultDirtDepreciation, existingLumensPerFixture, floorOf, housingEfficiency as housingEfficiencyOf, surveyFactors } from './survey.ts';
 import { displayUnits, toDisplay } from './units.ts';
 import { minimumCri, moistureRank, ratingRules, safetyDeferral, warningThresholds, type RatedProduct } from './warnings.ts';
 
@@ -579,14 +579,7 @@ interface Prepared {
 
 function prepare(survey: Survey, catalog: readonly CatalogProduct[], options: ChoiceOptions, only: ReadonlySet<string> | null, roomOffset = 0): Prepared {
   const m = survey.money;
-  checkRange('money.energyRatePerKwh', m.energyRatePerKwh, 0, 100);
-  checkRange('money.demandChargePerKwMonth', m.demandChargePerKwMonth, 0, 10_000);
-  checkRange('money.labourRatePerHour', m.labourRatePerHour, 0, 10_000);
-  checkRange('money.markupFraction', m.markupFraction, 0, 5);
-  checkRange('money.taxFraction', m.taxFraction, 0, 1);
-  checkRange('money.lampRecyclingCostEach', m.lampRecyclingCostEach, 0, 1e6);
-  checkRange('money.ballastDisposalCostEach', m.ballastDisposalCostEach, 0, 1e6);
-  checkRange('money.relampMinutes', m.relampMinutes, 0, 600);
+  checkMoney(survey);
   const escalation = checkRange('money.energyEscalationPerYear', m.energyEscalationPerYear, -0.5, 0.5);
   const discount = checkRange('money.discountRatePerYear', m.discountRatePerYear, 0, 0.5);
   const years = checkInteger('money.analysisYears', m.analysisYears, 1, 40);

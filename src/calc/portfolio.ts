@@ -25,20 +25,15 @@
  * of all sites summed over the longest study period.
  */
 import type { Portfolio, Survey } from '../survey/model.ts';
-import type { ProjectCost } from './costs.ts';
-import {
-  analyseInvestment,
-  internalRateOfReturn,
-  simplePaybackYears,
-  type InvestmentResult,
-  type IrrResult,
-} from './economics.ts';
+import { addCosts, zeroCost, type ProjectCost } from './costs.ts';
+import { analyseInvestment, internalRateOfReturn, type InvestmentResult, type IrrResult } from './economics.ts';
 import { kvaTotal } from './electrical.ts';
 import type { EnergySavings } from './energy.ts';
 import { CalcInputError, checkInteger } from './errors.ts';
 import { fixturesAcrossUnits, unitsOf } from './layout.ts';
 import {
   calculateSurvey,
+  moneyFigures,
   type EntryResult,
   type LoadTotals,
   type MoneyFigures,
@@ -179,18 +174,6 @@ function scaleCost(c: ProjectCost, k: number): ProjectCost {
   };
 }
 
-function moneyOf(energy: number, demand: number, maintenance: number, cost: ProjectCost): MoneyFigures {
-  const total = energy + demand + maintenance;
-  return {
-    energyPerYear: energy,
-    demandPerYear: demand,
-    maintenancePerYear: maintenance,
-    totalPerYear: total,
-    cost,
-    simplePaybackYears: simplePaybackYears(cost.net, total),
-  };
-}
-
 /** An entry result for `fixtures` fixtures, from one computed for `count` fixtures (count > 0). */
 function scaleEntry(r: EntryResult, fixtures: number): EntryResult {
   if (r.count === fixtures) return r;
@@ -202,23 +185,8 @@ function scaleEntry(r: EntryResult, fixtures: number): EntryResult {
     existing: scaleSide(r.existing, k),
     proposed: scaleSide(r.proposed, k),
     savings: scaleSavings(r.savings, k),
-    money: moneyOf(m.energyPerYear * k, m.demandPerYear * k, m.maintenancePerYear * k, scaleCost(m.cost, k)),
+    money: moneyFigures(m.energyPerYear * k, m.demandPerYear * k, m.maintenancePerYear * k, scaleCost(m.cost, k)),
     co2KgPerYear: r.co2KgPerYear * k,
-  };
-}
-
-const zeroCostParts: ProjectCost = { materials: 0, labour: 0, disposal: 0, markup: 0, tax: 0, gross: 0, rebates: 0, net: 0 };
-
-function addCost(a: ProjectCost, b: ProjectCost): ProjectCost {
-  return {
-    materials: a.materials + b.materials,
-    labour: a.labour + b.labour,
-    disposal: a.disposal + b.disposal,
-    markup: a.markup + b.markup,
-    tax: a.tax + b.tax,
-    gross: a.gross + b.gross,
-    rebates: a.rebates + b.rebates,
-    net: a.net + b.net,
   };
 }
 
@@ -245,7 +213,7 @@ function emptySums(): Sums {
     energy: 0,
     demand: 0,
     maintenance: 0,
-    cost: zeroCostParts,
+    cost: zeroCost,
     co2: 0,
     fixtures: 0,
     entries: 0,
@@ -274,7 +242,7 @@ function addInto(s: Sums, part: { existing: LoadTotals; proposed: LoadTotals; sa
   s.energy += part.money.energyPerYear;
   s.demand += part.money.demandPerYear;
   s.maintenance += part.money.maintenancePerYear;
-  s.cost = addCost(s.cost, part.money.cost);
+  s.cost = addCosts(s.cost, part.money.cost);
   s.co2 += part.co2KgPerYear;
 }
 
@@ -283,7 +251,7 @@ function totalsOf(s: Sums): SurveyTotals {
     existing: { ...s.existing, kva: kvaTotal(Math.max(0, s.existing.voltAmperes)) },
     proposed: { ...s.proposed, kva: kvaTotal(Math.max(0, s.proposed.voltAmperes)) },
     savings: s.savings,
-    money: moneyOf(s.energy, s.demand, s.maintenance, s.cost),
+    money: moneyFigures(s.energy, s.demand, s.maintenance, s.cost),
     co2KgPerYear: s.co2,
     fixtures: s.fixtures,
     entries: s.entries,

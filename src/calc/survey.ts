@@ -230,7 +230,8 @@ export function surveyFactors(survey: Survey): SurveyFactors {
   };
 }
 
-function checkMoney(survey: Survey): void {
+/** Checks the survey's money assumptions that every money calculation uses. Shared with the automatic product choice. */
+export function checkMoney(survey: Survey): void {
   const m = survey.money;
   checkRange('money.energyRatePerKwh', m.energyRatePerKwh, 0, 100);
   checkRange('money.demandChargePerKwMonth', m.demandChargePerKwMonth, 0, 10_000);
@@ -528,14 +529,24 @@ function sumMoney(items: readonly { money: MoneyFigures }[]): MoneyFigures {
     rebates += c.rebates;
     net += c.net;
   }
-  const total = energy + demand + maintenance;
+  return moneyFigures(energy, demand, maintenance, { materials, labour, disposal, markup, tax, gross, rebates, net });
+}
+
+/**
+ * Money figures from the yearly savings and the project cost: their total
+ * and the simple payback on the net cost.
+ *
+ * @example moneyFigures(300, 50, 50, { ...zeroCost, gross: 1200, net: 1200 }).simplePaybackYears //=> 3
+ */
+export function moneyFigures(energyPerYear: number, demandPerYear: number, maintenancePerYear: number, cost: ProjectCost): MoneyFigures {
+  const total = energyPerYear + demandPerYear + maintenancePerYear;
   return {
-    energyPerYear: energy,
-    demandPerYear: demand,
-    maintenancePerYear: maintenance,
+    energyPerYear,
+    demandPerYear,
+    maintenancePerYear,
     totalPerYear: total,
-    cost: { materials, labour, disposal, markup, tax, gross, rebates, net },
-    simplePaybackYears: simplePaybackYears(net, total),
+    cost,
+    simplePaybackYears: simplePaybackYears(cost.net, total),
   };
 }
 

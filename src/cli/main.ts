@@ -24,18 +24,22 @@ import type { Survey } from '../survey/model.ts';
 import { demoLandlordSurveys, demoPortfolio, demoSurvey } from '../survey/demo.ts';
 import { exampleCatalog } from '../survey/examples.ts';
 import { makeSurveyFile } from '../survey/format.ts';
-import { parseSurveyFileText, type FileProblem } from '../survey/validate.ts';
+import { parseSurveyFileText } from '../survey/validate.ts';
+import {
+  describeProblems,
+  parseCommandLine,
+  parseDate,
+  pickOneSurvey,
+  readInput,
+  sourceName,
+  UsageError,
+  wholeNumber,
+  writeOutput,
+  type CliIo,
+} from './args.ts';
 import { planUsage, runPlanCommand } from './plan.ts';
 
-/** What the command needs from its surroundings (so tests can run it in-process). */
-export interface CliIo {
-  stdout(text: string): void;
-  stderr(text: string): void;
-  readFile(path: string): Promise<string>;
-  readStdin(): Promise<string>;
-  /** Writes a file (the PDF commands need it). */
-  writeFile?(path: string, bytes: Uint8Array): Promise<void>;
-}
+export type { CliIo };
 
 export const cliVersion = '0.1.0';
 
@@ -93,8 +97,6 @@ ${planUsage}  choose <file>    Propose, for every fixture entry of one survey, t
 Exit codes: 0 done, 2 bad input or usage, 1 unexpected failure.
 `;
 
-class UsageError extends Error {}
-
 interface CalcOptions {
   file: string;
   surveyId: string | null;
@@ -126,23 +128,6 @@ function parseCalcArgs(args: readonly string[]): CalcOptions {
   return { file, surveyId, compact };
 }
 
-function describeProblems(source: string, problems: readonly FileProblem[]): string {
-  const lines = problems.map((p) => `  ${p.path}: ${p.message}`);
-  return `lampwalk: ${source} is not a valid survey file:\n${lines.join('\n')}\n`;
-}
-
-async function readInput(io: CliIo, file: string): Promise<string> {
-  if (file === '-') return io.readStdin();
-  try {
-    return await io.readFile(file);
-  } catch (err) {
-    const code = typeof err === 'object' && err !== null && 'code' in err ? String(err.code) : '';
-    const reason =
-      code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder, not a file' : code === 'EACCES' ? 'permission denied' : 'cannot be read';
-    throw new UsageError(`${file}: ${reason}`);
-  }
-}
-
 /** What `calc` adds beside `totals` for a survey with a repeated layout: the figures for all its units. */
 interface LayoutOutput {
   units: number;
@@ -165,7 +150,7 @@ async function runCalc(args: readonly string[], io: CliIo): Promise<number> {
   const text = await readInput(io, options.file);
   const parsed = parseSurveyFileText(text);
   if (!parsed.ok) {
-    io.stderr(describeProblems(options.file === '-' ? 'standard input' : options.file, parsed.problems));
+    io.stderr(describeProblems(sourceName(options.file), parsed.problems));
     return 2;
   }
   let surveys = parsed.file.surveys.map((s, index) => ({ survey: s, index }));
@@ -211,61 +196,31 @@ const exportFlags: Readonly<Record<ExportCommand, readonly string[]>> = {
   schedule: [],
 };
 
-function wholeNumber(flag: string, text: string, min: number, max: number): number {
-  if (!/^\d+$/.test(text) || Number(text) < min || Number(text) > max) {
-    throw new UsageError(`${flag} must be a whole number from ${min} to ${max} (got "${text}")`);
-  }
-  return Number(text);
-}
-
-function parseDate(text: string): Date {
-  const match = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text);
-  const date = match ? new Date(Number(match[1]), Number(match[2]) - 1, Number(match[3])) : null;
-  if (!match || !date || date.getMonth() !== Number(match[2]) - 1 || date.getDate() !== Number(match[3])) {
-    throw new UsageError(`--date must be a date written YYYY-MM-DD (got "${text}")`);
-  }
-  return date;
-}
-
 function parseExportArgs(command: ExportCommand, args: readonly string[]): ExportOptions {
   const options: ExportOptions = { file: '', surveyId: null, output: null, company: null, date: null, validDays: null, sparePercent: null };
-  let file: string | null = null;
-  const allowed = new Set(['--survey', ...exportFlags[command]]);
-  for (let i = 0; i < args.length; i++) {
-    const arg = args[i]!;
-    if (arg.startsWith('-') && arg !== '-') {
-      if (!allowed.has(arg)) throw new UsageError(`unknown option ${arg} for ${command}`);
-      const value = args[i + 1];
-      if (value === undefined || (value.startsWith('-') && value !== '-')) throw new UsageError(`${arg} needs a value`);
-      i++;
-      switch (arg) {
-        case '--survey':
-          options.surveyId = value;
-          break;
-        case '-o':
-        case '--output':
-          options.output = value;
-          break;
-        case '--company':
-          options.company = value;
-          break;
-        case '--date':
-          options.date = parseDate(value);
-          break;
-        case '--valid-days':
-          options.validDays = wholeNumber(arg, value, 1, 365);
-          break;
-        case '--spare':
-          options.sparePercent = wholeNumber(arg, value, 0, 100);
-          break;
-      }
-    } else if (file === null) {
-      file = arg;
-    } else {
-      throw new UsageError(`unexpected argument "${arg}"`);
+  const file = parseCommandLine(command, args, ['--survey', ...exportFlags[command]], (arg, value) => {
+    switch (arg) {
+      case '--survey':
+        options.surveyId = value;
+        break;
+      case '-o':
+      case '--output':
+        options.output = value;
+        break;
+      case '--company':
+        options.company = value;
+        break;
+      case '--date':
+        options.date = parseDate(value);
+        break;
+      case '--valid-days':
+        options.validDays = wholeNumber(arg, value, 1, 365);
+        break;
+      case '--spare':
+        options.sparePercent = wholeNumber(arg, value, 0, 100);
+        break;
     }
-  }
-  if (file === null) throw new UsageError(`${command} needs a survey file (or "-" for standard input)`);
+  });
   if ((command === 'report' || command === 'quote') && options.output === null) {
     throw new UsageError(`${command} writes a PDF: name it with -o <file.pdf>`);
   }
@@ -275,23 +230,13 @@ function parseExportArgs(command: ExportCommand, args: readonly string[]): Expor
 /** Reads, validates and calculates the one survey an export command works on; null after printing problems. */
 async function loadOneSurvey(io: CliIo, file: string, surveyId: string | null): Promise<{ survey: Survey; result: SurveyResult } | null> {
   const text = await readInput(io, file);
-  const source = file === '-' ? 'standard input' : file;
+  const source = sourceName(file);
   const parsed = parseSurveyFileText(text);
   if (!parsed.ok) {
     io.stderr(describeProblems(source, parsed.problems));
     return null;
   }
-  const surveys = parsed.file.surveys.map((survey, index) => ({ survey, index }));
-  let chosen = surveys;
-  if (surveyId !== null) {
-    chosen = surveys.filter((s) => s.survey.id === surveyId);
-    if (chosen.length === 0) throw new UsageError(`no survey with id "${surveyId}" in ${source}`);
-  } else if (surveys.length === 0) {
-    throw new UsageError(`${source} holds no survey`);
-  } else if (surveys.length > 1) {
-    throw new UsageError(`${source} holds ${surveys.length} surveys; pick one with --survey <id> (${surveys.map((s) => s.survey.id).join(', ')})`);
-  }
-  const { survey, index } = chosen[0]!;
+  const { survey, index } = pickOneSurvey(parsed.file.surveys, surveyId, source);
   try {
     return { survey, result: calculateSurvey(survey) };
   } catch (err) {
@@ -300,18 +245,6 @@ async function loadOneSurvey(io: CliIo, file: string, surveyId: string | null): 
       return null;
     }
     throw err;
-  }
-}
-
-async function writeOutput(io: CliIo, path: string, bytes: Uint8Array): Promise<void> {
-  if (!io.writeFile) throw new UsageError('this environment cannot write files');
-  try {
-    await io.writeFile(path, bytes);
-  } catch (err) {
-    const code = typeof err === 'object' && err !== null && 'code' in err ? String(err.code) : '';
-    const reason =
-      code === 'ENOENT' ? 'its folder does not exist' : code === 'EISDIR' ? 'is a folder' : code === 'EACCES' ? 'permission denied' : 'cannot be written';
-    throw new UsageError(`${path}: ${reason}`);
   }
 }
 
@@ -362,27 +295,22 @@ interface ChooseOptions {
 
 function parseChooseArgs(args: readonly string[]): ChooseOptions {
   const options: ChooseOptions = { file: '', surveyId: null, apply: false, out: null, entryIds: [], roomFirst: false };
-  let file: string | null = null;
-  for (let i = 0; i < args.length; i++) {
-    const arg = args[i]!;
-    if (arg === '--apply') options.apply = true;
-    else if (arg === '--room-first') options.roomFirst = true;
-    else if (arg === '--survey' || arg === '--out' || arg === '-o' || arg === '--entry') {
-      const value = args[i + 1];
-      if (value === undefined || (value.startsWith('-') && value !== '-')) throw new UsageError(`${arg} needs a value`);
-      i++;
+  const file = parseCommandLine(
+    'choose',
+    args,
+    ['--apply', '--room-first', '--survey', '--out', '-o', '--entry'],
+    (arg, value) => {
       if (arg === '--survey') options.surveyId = value;
       else if (arg === '--entry') options.entryIds.push(value);
       else options.out = value;
-    } else if (arg.startsWith('-') && arg !== '-') {
-      throw new UsageError(`unknown option ${arg} for choose`);
-    } else if (file === null) {
-      file = arg;
-    } else {
-      throw new UsageError(`unexpected argument "${arg}"`);
-    }
-  }
-  if (file === null) throw new UsageError('choose needs a survey file (or "-" for standard input)');
+    },
+    (arg) => {
+      if (arg === '--apply') options.apply = true;
+      else if (arg === '--room-first') options.roomFirst = true;
+      else return false;
+      return true;
+    },
+  );
   if (options.apply && options.out === null) throw new UsageError('choose --apply writes a new survey file: name it with --out <file>');
   if (!options.apply && options.out !== null) throw new UsageError('--out goes with --apply');
   if (!options.apply && options.entryIds.length > 0) throw new UsageError('--entry goes with --apply');
@@ -426,24 +354,14 @@ function choiceJson(choice: SurveyChoice): unknown {
 async function runChoose(args: readonly string[], io: CliIo): Promise<number> {
   const options = parseChooseArgs(args);
   const text = await readInput(io, options.file);
-  const source = options.file === '-' ? 'standard input' : options.file;
+  const source = sourceName(options.file);
   const parsed = parseSurveyFileText(text);
   if (!parsed.ok) {
     io.stderr(describeProblems(source, parsed.problems));
     return 2;
   }
   const file = parsed.file;
-  const surveys = file.surveys.map((survey, index) => ({ survey, index }));
-  let chosen = surveys;
-  if (options.surveyId !== null) {
-    chosen = surveys.filter((s) => s.survey.id === options.surveyId);
-    if (chosen.length === 0) throw new UsageError(`no survey with id "${options.surveyId}" in ${source}`);
-  } else if (surveys.length === 0) {
-    throw new UsageError(`${source} holds no survey`);
-  } else if (surveys.length > 1) {
-    throw new UsageError(`${source} holds ${surveys.length} surveys; pick one with --survey <id> (${surveys.map((s) => s.survey.id).join(', ')})`);
-  }
-  const { survey, index } = chosen[0]!;
+  const { survey, index } = pickOneSurvey(file.surveys, options.surveyId, source);
   if (file.catalog.length === 0) throw new UsageError(`${source} holds no catalog products to choose from`);
   let choice: SurveyChoice;
   try {

@@ -15,15 +15,10 @@ import { maxMoneyAmount } from '../calc/economics.ts';
 import { maxPlanYears, measuresFromSurveys, planPhases, type Measure, type PlanOptions } from '../calc/phasing.ts';
 import type { PhasePlanSettings, Portfolio, Survey } from '../survey/model.ts';
 import { parseSurveyFileText } from '../survey/validate.ts';
+import { describeProblems, parseCommandLine, parseDate, readInput, sourceName, UsageError, wholeNumber, writeOutput, type CliIo } from './args.ts';
 
-/** What the commands need from their surroundings (the same shape as `main.ts`'s `CliIo`). */
-export interface PlanCliIo {
-  stdout(text: string): void;
-  stderr(text: string): void;
-  readFile(path: string): Promise<string>;
-  readStdin(): Promise<string>;
-  writeFile?(path: string, bytes: Uint8Array): Promise<void>;
-}
+/** What the commands need from their surroundings: `main.ts`'s `CliIo`. */
+export type PlanCliIo = CliIo;
 
 /** The portfolio commands. */
 export type PlanCommand = 'plan' | 'summary' | 'phase-orders';
@@ -51,8 +46,6 @@ export const planUsage = `  plan <file> --budget <amount> --years <n>
                    --years, --method as plan, and --spare <percent>.
 `;
 
-class PlanUsageError extends Error {}
-
 interface PlanArgs {
   file: string;
   portfolioId: string | null;
@@ -75,25 +68,9 @@ const flagsOf: Readonly<Record<PlanCommand, readonly string[]>> = {
 function parseBudget(text: string): number {
   const value = /^\d+(\.\d+)?$/.test(text) ? Number(text) : Number.NaN;
   if (!Number.isFinite(value) || value > maxMoneyAmount) {
-    throw new PlanUsageError(`--budget must be an amount of 0 or more, digits with an optional decimal point, no currency sign or thousands separator (got "${text}")`);
+    throw new UsageError(`--budget must be an amount of 0 or more, digits with an optional decimal point, no currency sign or thousands separator (got "${text}")`);
   }
   return value;
-}
-
-function wholeNumber(flag: string, text: string, min: number, max: number): number {
-  if (!/^\d+$/.test(text) || Number(text) < min || Number(text) > max) {
-    throw new PlanUsageError(`${flag} must be a whole number from ${min} to ${max} (got "${text}")`);
-  }
-  return Number(text);
-}
-
-function parseDate(text: string): Date {
-  const match = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text);
-  const date = match ? new Date(Number(match[1]), Number(match[2]) - 1, Number(match[3])) : null;
-  if (!match || !date || date.getMonth() !== Number(match[2]) - 1 || date.getDate() !== Number(match[3])) {
-    throw new PlanUsageError(`--date must be a date written YYYY-MM-DD (got "${text}")`);
-  }
-  return date;
 }
 
 function parseArgs(command: PlanCommand, args: readonly string[]): PlanArgs {
@@ -109,19 +86,11 @@ function parseArgs(command: PlanCommand, args: readonly string[]): PlanArgs {
     date: null,
     sparePercent: null,
   };
-  let file: string | null = null;
-  const allowed = new Set(flagsOf[command]);
-  for (let i = 0; i < args.length; i++) {
-    const arg = args[i]!;
-    if (arg.startsWith('-') && arg !== '-') {
-      if (!allowed.has(arg)) throw new PlanUsageError(`unknown option ${arg} for ${command}`);
-      if (arg === '--compact') {
-        out.compact = true;
-        continue;
-      }
-      const value = args[i + 1];
-      if (value === undefined || (value.startsWith('-') && value !== '-')) throw new PlanUsageError(`${arg} needs a value`);
-      i++;
+  const file = parseCommandLine(
+    command,
+    args,
+    flagsOf[command],
+    (arg, value) => {
       switch (arg) {
         case '--portfolio':
           out.portfolioId = value;
@@ -134,7 +103,7 @@ function parseArgs(command: PlanCommand, args: readonly string[]): PlanArgs {
           break;
         case '--method':
           if (value !== 'auto' && value !== 'exact' && value !== 'heuristic') {
-            throw new PlanUsageError(`--method must be auto, exact or heuristic (got "${value}")`);
+            throw new UsageError(`--method must be auto, exact or heuristic (got "${value}")`);
           }
           out.method = value;
           break;
@@ -152,39 +121,15 @@ function parseArgs(command: PlanCommand, args: readonly string[]): PlanArgs {
           out.sparePercent = wholeNumber(arg, value, 0, 100);
           break;
       }
-    } else if (file === null) {
-      file = arg;
-    } else {
-      throw new PlanUsageError(`unexpected argument "${arg}"`);
-    }
-  }
-  if (file === null) throw new PlanUsageError(`${command} needs a survey file (or "-" for standard input)`);
-  if (command === 'summary' && out.output === null) throw new PlanUsageError('summary writes a PDF: name it with -o <file.pdf>');
+    },
+    (arg) => {
+      if (arg !== '--compact') return false;
+      out.compact = true;
+      return true;
+    },
+  );
+  if (command === 'summary' && out.output === null) throw new UsageError('summary writes a PDF: name it with -o <file.pdf>');
   return { ...out, file };
-}
-
-async function readInput(io: PlanCliIo, file: string): Promise<string> {
-  if (file === '-') return io.readStdin();
-  try {
-    return await io.readFile(file);
-  } catch (err) {
-    const code = typeof err === 'object' && err !== null && 'code' in err ? String(err.code) : '';
-    const reason =
-      code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder, not a file' : code === 'EACCES' ? 'permission denied' : 'cannot be read';
-    throw new PlanUsageError(`${file}: ${reason}`);
-  }
-}
-
-async function writeOutput(io: PlanCliIo, path: string, bytes: Uint8Array): Promise<void> {
-  if (!io.writeFile) throw new PlanUsageError('this environment cannot write files');
-  try {
-    await io.writeFile(path, bytes);
-  } catch (err) {
-    const code = typeof err === 'object' && err !== null && 'code' in err ? String(err.code) : '';
-    const reason =
-      code === 'ENOENT' ? 'its folder does not exist' : code === 'EISDIR' ? 'is a folder' : code === 'EACCES' ? 'permission denied' : 'cannot be written';
-    throw new PlanUsageError(`${path}: ${reason}`);
-  }
 }
 
 interface Loaded {
@@ -199,11 +144,10 @@ interface Loaded {
 
 /** Reads the file and picks the surveys and settings; null after printing the file's problems. */
 async function load(io: PlanCliIo, args: PlanArgs): Promise<Loaded | null> {
-  const source = args.file === '-' ? 'standard input' : args.file;
+  const source = sourceName(args.file);
   const parsed = parseSurveyFileText(await readInput(io, args.file));
   if (!parsed.ok) {
-    const lines = parsed.problems.map((p) => `  ${p.path}: ${p.message}`);
-    io.stderr(`lampwalk: ${source} is not a valid survey file:\n${lines.join('\n')}\n`);
+    io.stderr(describeProblems(source, parsed.problems));
     return null;
   }
   const file = parsed.file;
@@ -213,21 +157,21 @@ async function load(io: PlanCliIo, args: PlanArgs): Promise<Loaded | null> {
     portfolio = file.portfolios.find((p) => p.id === args.portfolioId) ?? null;
     if (!portfolio) {
       const known = file.portfolios.map((p) => p.id);
-      throw new PlanUsageError(`no portfolio with id "${args.portfolioId}" in ${source}${known.length ? ` (it has ${known.join(', ')})` : ' (it has none)'}`);
+      throw new UsageError(`no portfolio with id "${args.portfolioId}" in ${source}${known.length ? ` (it has ${known.join(', ')})` : ' (it has none)'}`);
     }
     chosen = portfolio.surveyIds.map((id, i) => {
       const index = file.surveys.findIndex((s) => s.id === id);
-      if (index < 0) throw new PlanUsageError(`portfolio "${portfolio!.id}" lists survey "${id}" (surveyIds[${i}]), which is not in ${source}`);
+      if (index < 0) throw new UsageError(`portfolio "${portfolio!.id}" lists survey "${id}" (surveyIds[${i}]), which is not in ${source}`);
       return { survey: file.surveys[index]!, index };
     });
   } else {
     chosen = file.surveys.map((survey, index) => ({ survey, index }));
   }
-  if (chosen.length === 0) throw new PlanUsageError(`${source} holds no survey to plan`);
+  if (chosen.length === 0) throw new UsageError(`${source} holds no survey to plan`);
   const budget = args.budget ?? portfolio?.plan.budgetPerYear ?? null;
   const years = args.years ?? portfolio?.plan.years ?? null;
   if (budget === null || years === null) {
-    throw new PlanUsageError('give the plan --budget <amount per year> and --years <n> (or --portfolio <id> whose plan settings hold them)');
+    throw new UsageError('give the plan --budget <amount per year> and --years <n> (or --portfolio <id> whose plan settings hold them)');
   }
   const surveys = chosen.map((c) => c.survey);
   const fileIndex = chosen.map((c) => c.index);
@@ -237,7 +181,7 @@ async function load(io: PlanCliIo, args: PlanArgs): Promise<Loaded | null> {
   } catch (err) {
     if (err instanceof CalcInputError) {
       const path = err.field.replace(/^surveys\[(\d+)\]/, (_, i: string) => `surveys[${fileIndex[Number(i)] ?? i}]`);
-      io.stderr(`lampwalk: ${source} is not a valid survey file:\n  ${path}: ${err.problem}\n`);
+      io.stderr(describeProblems(source, [{ path, message: err.problem }]));
       return null;
     }
     throw err;
@@ -308,11 +252,11 @@ export async function runPlanCommand(command: PlanCommand, rest: readonly string
       }
       return 0;
     } catch (err) {
-      if (err instanceof CalcInputError) throw new PlanUsageError(`${err.field}: ${err.problem}`);
+      if (err instanceof CalcInputError) throw new UsageError(`${err.field}: ${err.problem}`);
       throw err;
     }
   } catch (err) {
-    if (err instanceof PlanUsageError) {
+    if (err instanceof UsageError) {
       io.stderr(`lampwalk: ${err.message}\nRun "lampwalk help" for usage.\n`);
       return 2;
     }

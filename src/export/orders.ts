@@ -8,10 +8,11 @@ import { checkRange } from '../calc/errors.ts';
 import { fixturesAcrossUnits, unitsOf } from '../calc/layout.ts';
 import type { ProductForm, Survey } from '../survey/model.ts';
 import { pause, progressReporter } from './abort.ts';
-import { toCsv, utf8WithBom, type CsvCell } from './csv.ts';
+import { toCsv, type CsvCell } from './csv.ts';
 import { figuresFor, type Figures } from './figures.ts';
-import { colours, fileSlug, paperFor, pdfExporter, PdfWriter, sizes } from './pdf.ts';
+import { colours, csvExporterFor, paperFor, pdfExporter, PdfWriter, sizes } from './pdf.ts';
 import type { CsvFormat, Exporter, ExportInput, OrderPdfSettings, OrderSettings, ProgressCallback } from './types.ts';
+import type { CellInput, UserOptions } from 'jspdf-autotable';
 
 /** Spare stock, percent of the quantity needed, when the settings give none. */
 export const defaultSparePercent = 5;
@@ -119,18 +120,42 @@ export function orderLines(survey: Survey, settings: OrderSettings = {}, fixture
       group.rooms.add(room.id);
     }
   }
-  const lines = [...groups.values()].map(({ line, cost, costs, rooms }) => {
-    const spare = spareUnits(line.needed, percent);
-    const unitCost = line.needed > 0 ? cost / line.needed : 0;
-    const toOrder = line.needed + spare;
-    return { ...line, spare, toOrder, unitCost, unitCostVaries: costs.size > 1, orderCost: toOrder * unitCost, rooms: rooms.size };
-  });
-  const collator = new Intl.Collator(survey.locale, { numeric: true });
+  const lines = [...groups.values()].map(({ line, cost, costs, rooms }) => ({
+    ...line,
+    ...orderQuantities(line.needed, cost, percent),
+    unitCostVaries: costs.size > 1,
+    rooms: rooms.size,
+  }));
+  return sortOrderLines(lines, survey.locale);
+}
+
+/**
+ * The quantities of an order line from the units needed and their summed
+ * cost: spare stock (`spareUnits`), the quantity to order, the average unit
+ * cost and the order cost.
+ *
+ * @example orderQuantities(41, 410, 5) //=> { spare: 3, toOrder: 44, unitCost: 10, orderCost: 440 }
+ */
+export function orderQuantities(needed: number, cost: number, percent: number): Pick<OrderLine, 'spare' | 'toOrder' | 'unitCost' | 'orderCost'> {
+  const spare = spareUnits(needed, percent);
+  const unitCost = needed > 0 ? cost / needed : 0;
+  const toOrder = needed + spare;
+  return { spare, toOrder, unitCost, orderCost: toOrder * unitCost };
+}
+
+/**
+ * Order lines sorted by product name in the survey's locale (numbers in
+ * names compared as numbers), then by key. Sorts in place and returns `lines`.
+ *
+ * @example sortOrderLines([{ name: 'T8 10' }, { name: 'T8 9' }], 'en-US')[0].name //=> 'T8 9'
+ */
+export function sortOrderLines<L extends Pick<OrderLine, 'name' | 'key'>>(lines: L[], locale: string): L[] {
+  const collator = new Intl.Collator(locale, { numeric: true });
   return lines.sort((a, b) => collator.compare(a.name, b.name) || collator.compare(a.key, b.key));
 }
 
-/** Column names of the order list CSV (stable; other programs may read them). */
-export const orderCsvColumns = [
+/** Column names for one product in the order list CSVs (stable; other programs may read them). */
+export const orderProductCsvColumns = [
   'product_key',
   'catalog_id',
   'product_name',
@@ -145,8 +170,34 @@ export const orderCsvColumns = [
   'unit_cost',
   'order_cost',
   'currency',
-  'rooms',
 ] as const;
+
+/** Column names of the order list CSV (stable; other programs may read them). */
+export const orderCsvColumns = [...orderProductCsvColumns, 'rooms'] as const;
+
+/**
+ * The cells of one order line under `orderProductCsvColumns` (costs rounded to cents).
+ *
+ * @example orderProductCsvCells(line, 5, 'EUR')[0] //=> line.key
+ */
+export function orderProductCsvCells(l: OrderLine, sparePercent: number, currency: string): CsvCell[] {
+  return [
+    l.key,
+    l.catalogId,
+    l.name,
+    l.form,
+    l.wattsPerUnit,
+    l.lumensPerUnit,
+    l.cctKelvin,
+    l.needed,
+    sparePercent,
+    l.spare,
+    l.toOrder,
+    Math.round(l.unitCost * 100) / 100,
+    Math.round(l.orderCost * 100) / 100,
+    currency,
+  ];
+}
 
 /**
  * The order list as CSV text (header row first, CRLF line ends).
@@ -156,26 +207,63 @@ export const orderCsvColumns = [
 export function orderListCsv(survey: Survey, settings: OrderSettings = {}, format: CsvFormat = {}): string {
   const percent = settings.sparePercent ?? defaultSparePercent;
   const rows: CsvCell[][] = [[...orderCsvColumns]];
-  for (const l of orderLines(survey, settings)) {
-    rows.push([
-      l.key,
-      l.catalogId,
-      l.name,
-      l.form,
-      l.wattsPerUnit,
-      l.lumensPerUnit,
-      l.cctKelvin,
-      l.needed,
-      percent,
-      l.spare,
-      l.toOrder,
-      Math.round(l.unitCost * 100) / 100,
-      Math.round(l.orderCost * 100) / 100,
-      survey.money.currency,
-      l.rooms,
-    ]);
-  }
+  for (const l of orderLines(survey, settings)) rows.push([...orderProductCsvCells(l, percent, survey.money.currency), l.rooms]);
   return toCsv(rows, format);
+}
+
+/** An extra last column of an order table. */
+export interface OrderTableColumn<L> {
+  head: string;
+  cell(line: L): string;
+}
+
+/**
+ * Writes an order table: one row per line, and a foot row labelled
+ * `totalLabel` with the summed quantities and cost. `extra` adds a column at
+ * the end (right-aligned, empty in the foot).
+ *
+ * @example orderTable(w, fig, orderLines(survey), 'Total') // writes the order list table
+ */
+export function orderTable<L extends OrderLine>(w: PdfWriter, fig: Figures, lines: readonly L[], totalLabel: string, extra?: OrderTableColumn<L>): void {
+  const right = { halign: 'right' as const };
+  const head = ['Product', 'Catalog id', 'W', 'lm', 'Needed', 'Spare', 'To order', 'Unit cost', 'Cost'];
+  const foot: CellInput[] = [
+    totalLabel,
+    '',
+    '',
+    '',
+    { content: fig.number(lines.reduce((n, l) => n + l.needed, 0), 0), styles: right },
+    { content: fig.number(lines.reduce((n, l) => n + l.spare, 0), 0), styles: right },
+    { content: fig.number(lines.reduce((n, l) => n + l.toOrder, 0), 0), styles: right },
+    '',
+    { content: fig.money(lines.reduce((n, l) => n + l.orderCost, 0)), styles: right },
+  ];
+  const columnStyles: NonNullable<UserOptions['columnStyles']> = { 2: right, 3: right, 4: right, 5: right, 6: { ...right, fontStyle: 'bold' }, 7: right, 8: right };
+  if (extra) {
+    head.push(extra.head);
+    foot.push('');
+    columnStyles[head.length - 1] = right;
+  }
+  w.table({
+    head: [head],
+    body: lines.map((l) => {
+      const row = [
+        l.name,
+        l.catalogId ?? 'custom',
+        fig.number(l.wattsPerUnit, 1),
+        fig.number(l.lumensPerUnit, 0),
+        fig.number(l.needed, 0),
+        fig.number(l.spare, 0),
+        fig.number(l.toOrder, 0),
+        l.unitCostVaries ? `${fig.money(l.unitCost)} avg.` : fig.money(l.unitCost),
+        fig.money(l.orderCost),
+      ];
+      if (extra) row.push(extra.cell(l));
+      return row;
+    }),
+    foot: [foot],
+    columnStyles,
+  });
 }
 
 /**
@@ -201,36 +289,7 @@ export async function orderListPdf(signal: AbortSignal, input: ExportInput, sett
     { size: sizes.small },
   );
   if (perLayout) w.paragraph(perLayout, { size: sizes.small });
-  const right = { halign: 'right' as const };
-  const total = lines.reduce((sum, l) => sum + l.orderCost, 0);
-  w.table({
-    head: [['Product', 'Catalog id', 'W', 'lm', 'Needed', 'Spare', 'To order', 'Unit cost', 'Cost']],
-    body: lines.map((l) => [
-      l.name,
-      l.catalogId ?? 'custom',
-      fig.number(l.wattsPerUnit, 1),
-      fig.number(l.lumensPerUnit, 0),
-      fig.number(l.needed, 0),
-      fig.number(l.spare, 0),
-      fig.number(l.toOrder, 0),
-      l.unitCostVaries ? `${fig.money(l.unitCost)} avg.` : fig.money(l.unitCost),
-      fig.money(l.orderCost),
-    ]),
-    foot: [
-      [
-        'Total',
-        '',
-        '',
-        '',
-        { content: fig.number(lines.reduce((n, l) => n + l.needed, 0), 0), styles: right },
-        { content: fig.number(lines.reduce((n, l) => n + l.spare, 0), 0), styles: right },
-        { content: fig.number(lines.reduce((n, l) => n + l.toOrder, 0), 0), styles: right },
-        '',
-        { content: fig.money(total), styles: right },
-      ],
-    ],
-    columnStyles: { 2: right, 3: right, 4: right, 5: right, 6: { ...right, fontStyle: 'bold' }, 7: right, 8: right },
-  });
+  orderTable(w, fig, lines, 'Total');
   w.paragraph('Costs are the survey\u2019s unit costs before markup and tax; check prices and stock with the supplier.', {
     size: sizes.small,
     colour: colours.muted,
@@ -244,19 +303,13 @@ export async function orderListPdf(signal: AbortSignal, input: ExportInput, sett
 }
 
 /** The order list exporter, CSV. */
-export const orderListCsvExporter: Exporter<OrderSettings & CsvFormat> = {
-  id: 'order-list-csv',
-  label: 'Order list (CSV)',
-  mimeType: 'text/csv',
-  extension: 'csv',
-  async run(signal, input: ExportInput, settings, onProgress) {
-    const progress = progressReporter(onProgress);
-    await pause(signal);
-    const text = orderListCsv(input.survey, settings, settings);
-    progress(1);
-    return { fileName: `${fileSlug(input.survey.name)}-orders.csv`, mimeType: 'text/csv;charset=utf-8', bytes: utf8WithBom(text) };
-  },
-};
+export const orderListCsvExporter: Exporter<OrderSettings & CsvFormat> = csvExporterFor(
+  (input: ExportInput) => input.survey.name,
+  'order-list-csv',
+  'Order list (CSV)',
+  'orders',
+  (input, settings) => orderListCsv(input.survey, settings, settings),
+);
 
 /** The order list exporter, PDF page. */
 export const orderListPdfExporter: Exporter<OrderPdfSettings> = pdfExporter('order-list-pdf', 'Order list (PDF)', 'orders', orderListPdf);

@@ -11,7 +11,9 @@
 import { jsPDF } from 'jspdf';
 import { autoTable, type CellInput, type RowInput, type UserOptions } from 'jspdf-autotable';
 import { CalcInputError } from '../calc/errors.ts';
-import type { CompanySettings, Exporter, ExporterId, ExportInput, ImageInput, PaperSize, ProgressCallback } from './types.ts';
+import { pause, progressReporter } from './abort.ts';
+import { utf8WithBom } from './csv.ts';
+import type { CompanySettings, ExportedFile, Exporter, ExporterId, ExportInput, ImageInput, PaperSize, ProgressCallback } from './types.ts';
 import { pdfSafeText } from './text.ts';
 
 /** An RGB colour, 0–255 each. */
@@ -333,6 +335,57 @@ export function fileSlug(name: string): string {
   return slug === '' ? 'survey' : slug;
 }
 
+/** An exporter of one kind of input (a survey, a portfolio) to one file. */
+export interface FileExporter<Input, Id extends string, Options> {
+  id: Id;
+  label: string;
+  mimeType: string;
+  extension: string;
+  run(signal: AbortSignal, input: Input, options: Options, onProgress?: ProgressCallback): Promise<ExportedFile>;
+}
+
+/** The file types the exporters write: extension, the exporter's type and the file's. */
+const fileKinds = {
+  pdf: { extension: 'pdf', mimeType: 'application/pdf', fileMimeType: 'application/pdf' },
+  csv: { extension: 'csv', mimeType: 'text/csv', fileMimeType: 'text/csv;charset=utf-8' },
+} as const;
+
+function fileExporter<Input, Id extends string, Options>(
+  kind: keyof typeof fileKinds,
+  nameOf: (input: Input) => string,
+  id: Id,
+  label: string,
+  suffix: string,
+  make: (signal: AbortSignal, input: Input, options: Options, onProgress?: ProgressCallback) => Promise<Uint8Array>,
+): FileExporter<Input, Id, Options> {
+  const { extension, mimeType, fileMimeType } = fileKinds[kind];
+  return {
+    id,
+    label,
+    mimeType,
+    extension,
+    async run(signal, input, options, onProgress) {
+      const bytes = await make(signal, input, options, onProgress);
+      return { fileName: `${fileSlug(nameOf(input))}-${suffix}.${extension}`, mimeType: fileMimeType, bytes };
+    },
+  };
+}
+
+/**
+ * An exporter for a PDF document made by `make`, named `<slug of nameOf(input)>-<suffix>.pdf`.
+ *
+ * @example pdfExporterFor((input: PortfolioExportInput) => input.portfolio.name, 'portfolio-summary', 'Portfolio summary (PDF)', 'portfolio', portfolioSummaryPdf).extension //=> 'pdf'
+ */
+export function pdfExporterFor<Input, Id extends string, Options>(
+  nameOf: (input: Input) => string,
+  id: Id,
+  label: string,
+  suffix: string,
+  make: (signal: AbortSignal, input: Input, options: Options, onProgress?: ProgressCallback) => Promise<Uint8Array>,
+): FileExporter<Input, Id, Options> {
+  return fileExporter('pdf', nameOf, id, label, suffix, make);
+}
+
 /**
  * An exporter for a PDF document made by `make`, named `<survey>-<suffix>.pdf`.
  *
@@ -344,14 +397,27 @@ export function pdfExporter<Options>(
   suffix: string,
   make: (signal: AbortSignal, input: ExportInput, options: Options, onProgress?: ProgressCallback) => Promise<Uint8Array>,
 ): Exporter<Options> {
-  return {
-    id,
-    label,
-    mimeType: 'application/pdf',
-    extension: 'pdf',
-    async run(signal, input, options, onProgress) {
-      const bytes = await make(signal, input, options, onProgress);
-      return { fileName: `${fileSlug(input.survey.name)}-${suffix}.pdf`, mimeType: 'application/pdf', bytes };
-    },
-  };
+  return pdfExporterFor((input: ExportInput) => input.survey.name, id, label, suffix, make);
+}
+
+/**
+ * An exporter for CSV text made by `make` (UTF-8 with a byte-order mark for
+ * spreadsheets), named `<slug of nameOf(input)>-<suffix>.csv`.
+ *
+ * @example csvExporterFor((input: ExportInput) => input.survey.name, 'order-list-csv', 'Order list (CSV)', 'orders', (input, o) => orderListCsv(input.survey, o, o)).extension //=> 'csv'
+ */
+export function csvExporterFor<Input, Id extends string, Options>(
+  nameOf: (input: Input) => string,
+  id: Id,
+  label: string,
+  suffix: string,
+  make: (input: Input, options: Options) => string,
+): FileExporter<Input, Id, Options> {
+  return fileExporter('csv', nameOf, id, label, suffix, async (signal, input: Input, options: Options, onProgress) => {
+    const progress = progressReporter(onProgress);
+    await pause(signal);
+    const bytes = utf8WithBom(make(input, options));
+    progress(1);
+    return bytes;
+  });
 }

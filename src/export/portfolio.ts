@@ -11,10 +11,19 @@ import { calculatePortfolio } from '../calc/portfolio.ts';
 import type { PhasePlanSettings, Portfolio, Survey } from '../survey/model.ts';
 import { pause, progressReporter } from './abort.ts';
 import { niceStep } from './charts.ts';
-import { toCsv, utf8WithBom, type CsvCell } from './csv.ts';
+import { toCsv, type CsvCell } from './csv.ts';
 import { figuresFor, type Figures } from './figures.ts';
-import { defaultSparePercent, orderLines, spareUnits, type OrderLine } from './orders.ts';
-import { colours, fileSlug, paperFor, PdfWriter, sizes } from './pdf.ts';
+import {
+  defaultSparePercent,
+  orderLines,
+  orderProductCsvCells,
+  orderProductCsvColumns,
+  orderQuantities,
+  orderTable,
+  sortOrderLines,
+  type OrderLine,
+} from './orders.ts';
+import { colours, csvExporterFor, paperFor, pdfExporterFor, PdfWriter, sizes } from './pdf.ts';
 import { reportCautions } from './report.ts';
 import type {
   CsvFormat,
@@ -100,7 +109,6 @@ export function phaseOrderLines(input: PortfolioExportInput, settings: OrderSett
   const byMeasure = new Map(input.measures.map((m) => [m.id, m] as const));
   const out: PhaseOrderLine[] = [];
   const locale = input.surveys[0]?.locale ?? 'en-US';
-  const collator = new Intl.Collator(locale, { numeric: true });
   for (const year of input.plan.years) {
     const countsBySurvey = new Map<string, Map<string, number>>();
     for (const id of year.measures) {
@@ -128,38 +136,18 @@ export function phaseOrderLines(input: PortfolioExportInput, settings: OrderSett
         }
       }
     }
-    const lines = [...merged.values()].map(({ line, cost, varies, costs }) => {
-      const spare = spareUnits(line.needed, percent);
-      const unitCost = line.needed > 0 ? cost / line.needed : 0;
-      const toOrder = line.needed + spare;
-      return { ...line, spare, toOrder, unitCost, unitCostVaries: varies || costs.size > 1, orderCost: toOrder * unitCost };
-    });
-    lines.sort((a, b) => collator.compare(a.name, b.name) || collator.compare(a.key, b.key));
-    out.push(...lines);
+    const lines = [...merged.values()].map(({ line, cost, varies, costs }) => ({
+      ...line,
+      ...orderQuantities(line.needed, cost, percent),
+      unitCostVaries: varies || costs.size > 1,
+    }));
+    out.push(...sortOrderLines(lines, locale));
   }
   return out;
 }
 
 /** Column names of the order list by phase CSV (stable). */
-export const phaseOrderCsvColumns = [
-  'phase_year',
-  'product_key',
-  'catalog_id',
-  'product_name',
-  'form',
-  'watts_per_unit',
-  'lumens_per_unit',
-  'cct_kelvin',
-  'quantity_needed',
-  'spare_percent',
-  'spare_quantity',
-  'order_quantity',
-  'unit_cost',
-  'order_cost',
-  'currency',
-  'sites',
-  'rooms',
-] as const;
+export const phaseOrderCsvColumns = ['phase_year', ...orderProductCsvColumns, 'sites', 'rooms'] as const;
 
 /**
  * The order list by phase as CSV text (header row first, CRLF line ends).
@@ -169,27 +157,8 @@ export const phaseOrderCsvColumns = [
 export function phaseOrderCsv(input: PortfolioExportInput, settings: OrderSettings = {}, format: CsvFormat = {}): string {
   const percent = settings.sparePercent ?? defaultSparePercent;
   const rows: CsvCell[][] = [[...phaseOrderCsvColumns]];
-  for (const l of phaseOrderLines(input, settings)) {
-    rows.push([
-      l.year,
-      l.key,
-      l.catalogId,
-      l.name,
-      l.form,
-      l.wattsPerUnit,
-      l.lumensPerUnit,
-      l.cctKelvin,
-      l.needed,
-      percent,
-      l.spare,
-      l.toOrder,
-      Math.round(l.unitCost * 100) / 100,
-      Math.round(l.orderCost * 100) / 100,
-      input.result.currency ?? '',
-      l.sites,
-      l.rooms,
-    ]);
-  }
+  const currency = input.result.currency ?? '';
+  for (const l of phaseOrderLines(input, settings)) rows.push([l.year, ...orderProductCsvCells(l, percent, currency), l.sites, l.rooms]);
   return toCsv(rows, format);
 }
 
@@ -497,7 +466,6 @@ export async function phaseOrderPdf(signal: AbortSignal, input: PortfolioExportI
     `Proposed products for each year of the phased plan (budget ${fig.money(input.plan.settings.budgetPerYear)} a year), summed over the sites and over every unit of a repeated layout, with ${fig.number(percent, 0)} % spare stock rounded up to whole units.`,
     { size: sizes.small },
   );
-  const right = { halign: 'right' as const };
   for (const year of input.plan.years) {
     const own = lines.filter((l) => l.year === year.year);
     w.subheading(`Year ${year.year}`);
@@ -505,36 +473,7 @@ export async function phaseOrderPdf(signal: AbortSignal, input: PortfolioExportI
       w.paragraph('Nothing to order this year.', { size: sizes.small });
       continue;
     }
-    w.table({
-      head: [['Product', 'Catalog id', 'W', 'lm', 'Needed', 'Spare', 'To order', 'Unit cost', 'Cost', 'Sites']],
-      body: own.map((l) => [
-        l.name,
-        l.catalogId ?? 'custom',
-        fig.number(l.wattsPerUnit, 1),
-        fig.number(l.lumensPerUnit, 0),
-        fig.number(l.needed, 0),
-        fig.number(l.spare, 0),
-        fig.number(l.toOrder, 0),
-        l.unitCostVaries ? `${fig.money(l.unitCost)} avg.` : fig.money(l.unitCost),
-        fig.money(l.orderCost),
-        fig.number(l.sites, 0),
-      ]),
-      foot: [
-        [
-          `Year ${year.year} total`,
-          '',
-          '',
-          '',
-          { content: fig.number(own.reduce((n, l) => n + l.needed, 0), 0), styles: right },
-          { content: fig.number(own.reduce((n, l) => n + l.spare, 0), 0), styles: right },
-          { content: fig.number(own.reduce((n, l) => n + l.toOrder, 0), 0), styles: right },
-          '',
-          { content: fig.money(own.reduce((n, l) => n + l.orderCost, 0)), styles: right },
-          '',
-        ],
-      ],
-      columnStyles: { 2: right, 3: right, 4: right, 5: right, 6: { ...right, fontStyle: 'bold' }, 7: right, 8: right, 9: right },
-    });
+    orderTable(w, fig, own, `Year ${year.year} total`, { head: 'Sites', cell: (l) => fig.number(l.sites, 0) });
     await pause(signal);
   }
   w.paragraph('Costs are the surveys\u2019 unit costs before markup and tax; check prices and stock with the supplier.', {
@@ -549,26 +488,11 @@ export async function phaseOrderPdf(signal: AbortSignal, input: PortfolioExportI
   return bytes;
 }
 
-function portfolioPdfExporter<Options>(
-  id: PortfolioExporter<Options>['id'],
-  label: string,
-  suffix: string,
-  make: (signal: AbortSignal, input: PortfolioExportInput, options: Options, onProgress?: ProgressCallback) => Promise<Uint8Array>,
-): PortfolioExporter<Options> {
-  return {
-    id,
-    label,
-    mimeType: 'application/pdf',
-    extension: 'pdf',
-    async run(signal, input, options, onProgress) {
-      const bytes = await make(signal, input, options, onProgress);
-      return { fileName: `${fileSlug(input.portfolio.name)}-${suffix}.pdf`, mimeType: 'application/pdf', bytes };
-    },
-  };
-}
+const portfolioName = (input: PortfolioExportInput): string => input.portfolio.name;
 
 /** The portfolio summary exporter (PDF). */
-export const portfolioSummary: PortfolioExporter<PortfolioSummarySettings> = portfolioPdfExporter(
+export const portfolioSummary: PortfolioExporter<PortfolioSummarySettings> = pdfExporterFor(
+  portfolioName,
   'portfolio-summary',
   'Portfolio summary (PDF)',
   'portfolio',
@@ -576,7 +500,8 @@ export const portfolioSummary: PortfolioExporter<PortfolioSummarySettings> = por
 );
 
 /** The order list by phase exporter, PDF. */
-export const phaseOrdersPdfExporter: PortfolioExporter<PhaseOrderPdfSettings> = portfolioPdfExporter(
+export const phaseOrdersPdfExporter: PortfolioExporter<PhaseOrderPdfSettings> = pdfExporterFor(
+  portfolioName,
   'phase-orders-pdf',
   'Order list by phase (PDF)',
   'orders-by-phase',
@@ -584,16 +509,10 @@ export const phaseOrdersPdfExporter: PortfolioExporter<PhaseOrderPdfSettings> = 
 );
 
 /** The order list by phase exporter, CSV. */
-export const phaseOrdersCsvExporter: PortfolioExporter<OrderSettings & CsvFormat> = {
-  id: 'phase-orders-csv',
-  label: 'Order list by phase (CSV)',
-  mimeType: 'text/csv',
-  extension: 'csv',
-  async run(signal, input, settings, onProgress) {
-    const progress = progressReporter(onProgress);
-    await pause(signal);
-    const text = phaseOrderCsv(input, settings, settings);
-    progress(1);
-    return { fileName: `${fileSlug(input.portfolio.name)}-orders-by-phase.csv`, mimeType: 'text/csv;charset=utf-8', bytes: utf8WithBom(text) };
-  },
-};
+export const phaseOrdersCsvExporter: PortfolioExporter<OrderSettings & CsvFormat> = csvExporterFor(
+  portfolioName,
+  'phase-orders-csv',
+  'Order list by phase (CSV)',
+  'orders-by-phase',
+  (input, settings) => phaseOrderCsv(input, settings, settings),
+);

@@ -36,9 +36,9 @@ import type {
 } from '../survey/model.ts';
 import { fixtureEntrySchema } from '../survey/validate.ts';
 import { pause, progressReporter } from './abort.ts';
-import { csvFormat, readCsv, restoreCell, toCsv, utf8BytesOver, utf8WithBom, type CsvCell } from './csv.ts';
-import { fileSlug } from './pdf.ts';
-import type { CsvFormat, Exporter, ProgressCallback } from './types.ts';
+import { csvFormat, readCsv, restoreCell, toCsv, utf8BytesOver, type CsvCell } from './csv.ts';
+import { csvExporterFor } from './pdf.ts';
+import type { CsvFormat, Exporter, ExportInput, ProgressCallback } from './types.ts';
 
 // ---------------------------------------------------------------------------
 // Closed sets (a Record over the union makes the compiler check each list is complete)
@@ -239,19 +239,13 @@ function round(value: number, digits: number): number {
 }
 
 /** The fixture schedule exporter (CSV, UTF-8 with a byte-order mark for spreadsheets). */
-export const fixtureScheduleExporter: Exporter<CsvFormat> = {
-  id: 'fixture-schedule-csv',
-  label: 'Fixture schedule (CSV)',
-  mimeType: 'text/csv',
-  extension: 'csv',
-  async run(signal, input, format, onProgress) {
-    const progress = progressReporter(onProgress);
-    await pause(signal);
-    const csv = fixtureScheduleCsv(input.survey, input.result, format);
-    progress(1);
-    return { fileName: `${fileSlug(input.survey.name)}-fixtures.csv`, mimeType: 'text/csv;charset=utf-8', bytes: utf8WithBom(csv) };
-  },
-};
+export const fixtureScheduleExporter: Exporter<CsvFormat> = csvExporterFor(
+  (input: ExportInput) => input.survey.name,
+  'fixture-schedule-csv',
+  'Fixture schedule (CSV)',
+  'fixtures',
+  (input, format) => fixtureScheduleCsv(input.survey, input.result, format),
+);
 
 // ---------------------------------------------------------------------------
 // Import

@@ -15,7 +15,6 @@
  * surveys reads that survey again, each once this window's own edits are
  * saved (so what is shown is what is stored, own edits included).
  */
-import { useEffect, useState } from 'preact/hooks';
 import type { Portfolio, Survey, SurveyHeader } from '../../survey/model.ts';
 import type { Patch, PortfolioChange, StoreChange, SurveyStore } from '../../survey/store.ts';
 import { portfolioSchema, problemsAgainst } from '../../survey/validate.ts';
@@ -23,6 +22,7 @@ import { listenForChanges, listenForPortfolioChanges } from './broadcast.ts';
 import { messageOf } from './errors.ts';
 import { registerQueue } from './flush.ts';
 import { SaveQueue, type QueueStatus } from './queue.ts';
+import { useKeptSession, type KeptSessionKind, type KeptSessionState } from './keptSession.ts';
 import { applyPatch } from './session.ts';
 
 /** The fields of a portfolio the screens change. */
@@ -212,14 +212,18 @@ async function readSurveys(
   return { surveys, missing };
 }
 
-/** The session kept while the user moves between a portfolio's screens. */
-let current: PortfolioSession | null = null;
+/** Portfolio sessions for `useKeptSession`: the one kept while the user moves between a portfolio's screens. */
+const portfolioSessions: KeptSessionKind<PortfolioSession> = {
+  kept: { current: null },
+  idOf: (session) => session.portfolioId,
+  open: (store, id) => PortfolioSession.open(store, id),
+  async reused(session) {
+    await session.flush();
+    await session.reload();
+  },
+};
 
-export interface PortfolioState {
-  session: PortfolioSession | null;
-  snapshot: PortfolioSnapshot | null;
-  error: string | null;
-}
+export type PortfolioState = KeptSessionState<PortfolioSession, PortfolioSnapshot>;
 
 /**
  * Opens (or reuses) the session of `portfolioId` and re-renders on every
@@ -229,46 +233,5 @@ export interface PortfolioState {
  * @example usePortfolioSession(store, id).snapshot?.portfolio.name //=> 'North estate'
  */
 export function usePortfolioSession(store: SurveyStore, portfolioId: string): PortfolioState {
-  const [state, setState] = useState<PortfolioState>(() =>
-    current && current.portfolioId === portfolioId && current.store === store
-      ? { session: current, snapshot: current.snapshot, error: null }
-      : { session: null, snapshot: null, error: null },
-  );
-
-  useEffect(() => {
-    let cancelled = false;
-    let unsubscribe = () => {};
-    const follow = (session: PortfolioSession) => {
-      if (current && current !== session) current.dispose();
-      current = session;
-      setState({ session, snapshot: session.snapshot, error: null });
-      unsubscribe = session.subscribe((snapshot) => setState({ session, snapshot, error: null }));
-    };
-    if (current && current.portfolioId === portfolioId && current.store === store) {
-      const session = current;
-      follow(session);
-      session
-        .flush()
-        .then(() => session.reload())
-        .catch((error: unknown) => {
-          if (!cancelled) setState({ session, snapshot: session.snapshot, error: messageOf(error) });
-        });
-    } else {
-      setState({ session: null, snapshot: null, error: null });
-      PortfolioSession.open(store, portfolioId).then(
-        (session) => {
-          if (!cancelled) follow(session);
-        },
-        (error: unknown) => {
-          if (!cancelled) setState({ session: null, snapshot: null, error: messageOf(error) });
-        },
-      );
-    }
-    return () => {
-      cancelled = true;
-      unsubscribe();
-    };
-  }, [store, portfolioId]);
-
-  return state;
+  return useKeptSession<PortfolioSnapshot, PortfolioSession>(store, portfolioId, portfolioSessions);
 }

@@ -4,16 +4,17 @@ import type { CatalogProduct } from '../../survey/model.ts';
 import type { SurveyStore } from '../../survey/store.ts';
 import { AppContext } from './context.ts';
 import { messageOf } from './errors.ts';
+import { useKeptSession, type KeptSessionKind, type KeptSessionState } from './keptSession.ts';
 import { SurveySession, type SessionSnapshot } from './session.ts';
 
-/** The session kept while the user moves between a survey's screens. */
-let current: SurveySession | null = null;
+/** Survey sessions for `useKeptSession`: the one kept while the user moves between a survey's screens. */
+const surveySessions: KeptSessionKind<SurveySession> = {
+  kept: { current: null },
+  idOf: (session) => session.surveyId,
+  open: (store, id) => SurveySession.open(store, id),
+};
 
-export interface SessionState {
-  session: SurveySession | null;
-  snapshot: SessionSnapshot | null;
-  error: string | null;
-}
+export type SessionState = KeptSessionState<SurveySession, SessionSnapshot>;
 
 /**
  * Opens (or reuses) the session of `surveyId` and re-renders on every change.
@@ -22,47 +23,14 @@ export interface SessionState {
  * @example useSurveySession(store, 'demo-tallowmere').snapshot?.survey.name //=> 'Tallowmere Corner — shop and flats (demo)'
  */
 export function useSurveySession(store: SurveyStore, surveyId: string): SessionState {
-  const [state, setState] = useState<SessionState>(() =>
-    current && current.surveyId === surveyId && current.store === store
-      ? { session: current, snapshot: current.snapshot, error: null }
-      : { session: null, snapshot: null, error: null },
-  );
-
   const services = useContext(AppContext);
   const notify = useRef(services?.notify);
   notify.current = services?.notify;
 
-  useEffect(() => {
-    let cancelled = false;
-    let unsubscribe = () => {};
-    const follow = (session: SurveySession) => {
-      if (current && current !== session) current.dispose();
-      current = session;
-      setState({ session, snapshot: session.snapshot, error: null });
-      const stopSnapshots = session.subscribe((snapshot) => setState({ session, snapshot, error: null }));
-      const stopNotices = session.onOtherWindow((text) => notify.current?.({ tone: 'info', text }));
-      unsubscribe = () => {
-        stopSnapshots();
-        stopNotices();
-      };
-    };
-    if (current && current.surveyId === surveyId && current.store === store) follow(current);
-    else {
-      setState({ session: null, snapshot: null, error: null });
-      SurveySession.open(store, surveyId).then(
-        (session) => {
-          if (!cancelled) follow(session);
-        },
-        (error: unknown) => {
-          if (!cancelled) setState({ session: null, snapshot: null, error: messageOf(error) });
-        },
-      );
-    }
-    return () => {
-      cancelled = true;
-      unsubscribe();
-    };
-  }, [store, surveyId]);
+  const state = useKeptSession<SessionSnapshot, SurveySession>(store, surveyId, {
+    ...surveySessions,
+    follow: (session) => session.onOtherWindow((text) => notify.current?.({ tone: 'info', text })),
+  });
 
   // A tab the browser froze in the background may have missed other windows' messages:
   // read the survey again whenever the page is shown, so a value replaced meanwhile is shown and announced.
