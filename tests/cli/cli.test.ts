@@ -1,42 +1,11 @@
-import { execFile } from 'node:child_process';
 import { mkdtemp, readFile, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { promisify } from 'node:util';
 import { describe, expect, it } from 'vitest';
-import { main, type CliIo } from '../../src/cli/main.ts';
+import { main } from '../../src/cli/main.ts';
 import { calculateSurvey } from '../../src/calc/survey.ts';
 import { demoLandlordSurveys, demoPortfolio, demoSurvey } from '../../src/survey/demo.ts';
-
-const run = promisify(execFile);
-
-function fakeIo(files: Record<string, string> = {}, stdin = ''): CliIo & { out: string; err: string } {
-  const io = {
-    out: '',
-    err: '',
-    stdout(text: string) {
-      io.out += text;
-    },
-    stderr(text: string) {
-      io.err += text;
-    },
-    async readFile(path: string) {
-      const text = files[path];
-      if (text === undefined) throw Object.assign(new Error('missing'), { code: 'ENOENT' });
-      return text;
-    },
-    async readStdin() {
-      return stdin;
-    },
-  };
-  return io;
-}
-
-async function demoFileText(...options: string[]): Promise<string> {
-  const io = fakeIo();
-  expect(await main(['demo', ...options], io)).toBe(0);
-  return io.out;
-}
+import { demoFileText, fakeIo, runLampwalk, runLampwalkFailure } from './support.ts';
 
 describe('lampwalk demo', () => {
   it('prints a survey file that calc accepts', async () => {
@@ -133,21 +102,17 @@ describe('lampwalk calc', () => {
 describe('the installed command', () => {
   it('runs through npx-style bin with no build step and never prints a stack trace', async () => {
     const dir = await mkdtemp(join(tmpdir(), 'lampwalk-cli-'));
-    const bin = join(process.cwd(), 'bin', 'lampwalk.mjs');
-    const demo = await run(process.execPath, [bin, 'demo']);
+    const demo = await runLampwalk(['demo']);
     const demoPath = join(dir, 'demo.json');
     await writeFile(demoPath, demo.stdout);
-    const calc = await run(process.execPath, [bin, 'calc', demoPath]);
+    const calc = await runLampwalk(['calc', demoPath]);
     expect(JSON.parse(calc.stdout).surveys[0].totals.fixtures).toBe(40);
 
     const file = JSON.parse(await readFile(demoPath, 'utf8'));
     file.surveys[0].rooms[0].entries[0].count = -1;
     const badPath = join(dir, 'bad.json');
     await writeFile(badPath, JSON.stringify(file));
-    const failure = await run(process.execPath, [bin, 'calc', badPath]).then(
-      () => null,
-      (err: { code: number; stderr: string }) => err,
-    );
+    const failure = await runLampwalkFailure(['calc', badPath]);
     expect(failure?.code).toBe(2);
     expect(failure?.stderr).toMatch(/surveys\[0\]\.rooms\[0\]\.entries\[0\]\.count/);
     expect(failure?.stderr).not.toMatch(/\n\s+at /);

@@ -1,53 +1,18 @@
-import { execFile } from 'node:child_process';
 import { mkdtemp, readFile, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { promisify } from 'node:util';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
-import { main, type CliIo } from '../../src/cli/main.ts';
+import { main } from '../../src/cli/main.ts';
 import { calculateSurvey } from '../../src/calc/survey.ts';
 import { figuresFor } from '../../src/export/figures.ts';
 import { orderLines } from '../../src/export/orders.ts';
 import { demoSurvey } from '../../src/survey/demo.ts';
 import { pdfText, printed } from '../export/pdf-helpers.ts';
-
-const run = promisify(execFile);
-
-function fakeIo(files: Record<string, string> = {}): CliIo & { out: string; err: string; written: Map<string, Uint8Array> } {
-  const io = {
-    out: '',
-    err: '',
-    written: new Map<string, Uint8Array>(),
-    stdout(text: string) {
-      io.out += text;
-    },
-    stderr(text: string) {
-      io.err += text;
-    },
-    async readFile(path: string) {
-      const text = files[path];
-      if (text === undefined) throw Object.assign(new Error('missing'), { code: 'ENOENT' });
-      return text;
-    },
-    async readStdin() {
-      return files['-'] ?? '';
-    },
-    async writeFile(path: string, bytes: Uint8Array) {
-      io.written.set(path, bytes);
-    },
-  };
-  return io;
-}
-
-async function demoText(): Promise<string> {
-  const io = fakeIo();
-  expect(await main(['demo'], io)).toBe(0);
-  return io.out;
-}
+import { demoFileText, fakeIo, runLampwalk, runLampwalkFailure } from './support.ts';
 
 describe('lampwalk report, quote, orders and schedule', async () => {
-  const files = { 'demo.json': await demoText() };
+  const files = { 'demo.json': await demoFileText() };
   const survey = demoSurvey();
   const result = calculateSurvey(survey);
   const fig = figuresFor(survey);
@@ -112,17 +77,13 @@ describe('lampwalk report, quote, orders and schedule', async () => {
 
   it('runs through the installed command and never prints a stack trace', async () => {
     const dir = await mkdtemp(join(tmpdir(), 'lampwalk-export-'));
-    const bin = join(process.cwd(), 'bin', 'lampwalk.mjs');
     const demoPath = join(dir, 'demo.json');
     await writeFile(demoPath, files['demo.json']);
     const pdfPath = join(dir, 'report.pdf');
-    await run(process.execPath, [bin, 'report', demoPath, '-o', pdfPath]);
+    await runLampwalk(['report', demoPath, '-o', pdfPath]);
     const text = await pdfText(new Uint8Array(await readFile(pdfPath)));
     expect(printed(text, fig.kwh(result.totals.savings.kwhPerYear))).toBe(true);
-    const failure = await run(process.execPath, [bin, 'quote', demoPath, '-o', join(dir, 'no-such-folder', 'q.pdf')]).then(
-      () => null,
-      (err: { code: number; stderr: string }) => err,
-    );
+    const failure = await runLampwalkFailure(['quote', demoPath, '-o', join(dir, 'no-such-folder', 'q.pdf')]);
     expect(failure?.code).toBe(2);
     expect(failure?.stderr).toMatch(/q\.pdf: its folder does not exist/);
     expect(failure?.stderr).not.toMatch(/\n\s+at /);

@@ -5,34 +5,13 @@
  * published source).
  */
 import { describe, expect, it } from 'vitest';
-import { main, type CliIo } from '../../src/cli/main.ts';
+import { main } from '../../src/cli/main.ts';
 import { calculateLayout } from '../../src/calc/portfolio.ts';
 import { calculateSurvey } from '../../src/calc/survey.ts';
 import { makeSurveyFile } from '../../src/survey/format.ts';
 import { demoSurvey } from '../../src/survey/demo.ts';
 import type { Survey } from '../../src/survey/model.ts';
-
-function fakeIo(files: Record<string, string>): CliIo & { out: string; err: string } {
-  const io = {
-    out: '',
-    err: '',
-    stdout(text: string) {
-      io.out += text;
-    },
-    stderr(text: string) {
-      io.err += text;
-    },
-    async readFile(path: string) {
-      const text = files[path];
-      if (text === undefined) throw Object.assign(new Error('missing'), { code: 'ENOENT' });
-      return text;
-    },
-    async readStdin() {
-      return '';
-    },
-  };
-  return io;
-}
+import { fakeIo } from './support.ts';
 
 function fileWith(survey: Survey): string {
   return JSON.stringify(makeSurveyFile([survey], [], new Date(Date.UTC(2026, 2, 1))));

@@ -1,45 +1,16 @@
-import { execFile } from 'node:child_process';
 import { mkdtemp, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { promisify } from 'node:util';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
-import { main, type CliIo } from '../../src/cli/main.ts';
+import { main } from '../../src/cli/main.ts';
 import { measuresFromSurveys, planPhases, type PhasePlan } from '../../src/calc/phasing.ts';
 import { figuresFor } from '../../src/export/figures.ts';
 import { demoSurvey } from '../../src/survey/demo.ts';
 import { makeSurveyFile } from '../../src/survey/format.ts';
 import type { Portfolio, Survey } from '../../src/survey/model.ts';
 import { pdfText, printed } from '../export/pdf-helpers.ts';
-
-const run = promisify(execFile);
-
-function fakeIo(files: Record<string, string> = {}): CliIo & { out: string; err: string; written: Map<string, Uint8Array> } {
-  const io = {
-    out: '',
-    err: '',
-    written: new Map<string, Uint8Array>(),
-    stdout(text: string) {
-      io.out += text;
-    },
-    stderr(text: string) {
-      io.err += text;
-    },
-    async readFile(path: string) {
-      const text = files[path];
-      if (text === undefined) throw Object.assign(new Error('missing'), { code: 'ENOENT' });
-      return text;
-    },
-    async readStdin() {
-      return files['-'] ?? '';
-    },
-    async writeFile(path: string, bytes: Uint8Array) {
-      io.written.set(path, bytes);
-    },
-  };
-  return io;
-}
+import { fakeIo, runLampwalk, runLampwalkFailure } from './support.ts';
 
 /** The demo survey under a new id, with room and entry ids of its own (a file needs unique ids). */
 function copyOfDemo(id: string): Survey {
@@ -187,12 +158,9 @@ describe('lampwalk plan', () => {
     const dir = await mkdtemp(join(tmpdir(), 'lampwalk-plan-'));
     const path = join(dir, 'estate.json');
     await writeFile(path, fileText);
-    const ok = await run('node', ['bin/lampwalk.mjs', 'plan', path, '--portfolio', 'estate']);
+    const ok = await runLampwalk(['plan', path, '--portfolio', 'estate']);
     expect((JSON.parse(ok.stdout) as PlanOutput).plan.years.length).toBe(3);
-    const bad = await run('node', ['bin/lampwalk.mjs', 'plan', path, '--years', 'three']).then(
-      () => null,
-      (err: { code: number; stderr: string }) => err,
-    );
+    const bad = await runLampwalkFailure(['plan', path, '--years', 'three']);
     expect(bad?.code).toBe(2);
     expect(bad?.stderr).toMatch(/--years must be a whole number from 1 to 20 \(got "three"\)/);
   }, 30_000);

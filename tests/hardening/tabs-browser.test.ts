@@ -17,19 +17,11 @@
  * user is told when their value was replaced.
  */
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { buildAndServe, hasChromium, openApp, openBrowser, type ServedApp } from '../ui/support/browser.ts';
+import { expect, it } from 'vitest';
+import { allSaved, openApp, openBrowser } from '../ui/support/browser.ts';
+import { browserTests, serveAppForFile } from '../ui/support/suite.ts';
 
-const browserTests = describe.skipIf(!hasChromium());
-let app: ServedApp | undefined;
-
-beforeAll(async () => {
-  if (hasChromium()) app = await buildAndServe();
-}, 240_000);
-
-afterAll(async () => {
-  await app?.close();
-});
+const app = serveAppForFile(240_000);
 
 const entryHash = '#/s/demo-tallowmere/r/demo-shop/e/demo-shop-troffers';
 
@@ -72,11 +64,6 @@ async function setHold(page: Page, on: boolean): Promise<void> {
   }, on);
 }
 
-/** Waits until every edit on the page has been written. */
-async function allSaved(page: Page): Promise<void> {
-  await page.waitForFunction(() => [...document.querySelectorAll('[data-testid="save-status"]')].every((el) => el.getAttribute('data-pending') === '0'));
-}
-
 /** Types a value into a field, as a user would, and leaves the field. */
 async function type(page: Page, label: string, value: string): Promise<void> {
   const field = label === 'count' ? page.getByTestId('entry-count') : page.getByLabel(label, { exact: true });
@@ -113,7 +100,6 @@ async function storedEntry(page: Page): Promise<StoredTroffers> {
 
 browserTests('two tabs on the same fixture entry', () => {
   it('keeps both tabs’ edits to different fields; for the same field the later wins and the other tab says so', async () => {
-    if (!app) throw new Error('no build');
     const browser = await openBrowser();
     try {
       const a = browser.page;

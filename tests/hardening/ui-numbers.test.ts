@@ -15,35 +15,16 @@ import { mkdtemp, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Locator, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { buildAndServe, hasChromium, openApp, openBrowser, type ServedApp } from '../ui/support/browser.ts';
+import { expect, it } from 'vitest';
+import { allSaved, openAllDetails, openApp, openBrowser } from '../ui/support/browser.ts';
+import { browserTests, serveAppForFile } from '../ui/support/suite.ts';
 
-const browserTests = describe.skipIf(!hasChromium());
-let app: ServedApp;
-
-beforeAll(async () => {
-  if (hasChromium()) app = await buildAndServe();
-}, 180_000);
-
-afterAll(async () => {
-  await app?.close();
-});
+const app = serveAppForFile();
 
 const badTyped = ['NaN', 'Infinity', '-Infinity', '1e308', '-1', '1,500', '1.500,5', 'twelve'];
 
-/** Opens every folded section so each number field can be typed into. */
-async function unfold(page: Page): Promise<void> {
-  await page.evaluate(() => {
-    for (const details of document.querySelectorAll('details')) details.open = true;
-  });
-}
-
 function numberFields(page: Page): Locator {
   return page.locator('input[inputmode="decimal"]');
-}
-
-async function allSaved(page: Page): Promise<void> {
-  await page.waitForFunction(() => [...document.querySelectorAll('[data-testid="save-status"]')].every((el) => el.getAttribute('data-pending') === '0'));
 }
 
 async function values(page: Page): Promise<string[]> {
@@ -95,7 +76,7 @@ async function typeEverywhere(page: Page, text: string | readonly string[], expe
 async function openScreen(page: Page, url: string, hash: string): Promise<void> {
   await page.goto(`${url}${hash}`);
   await page.getByTestId('live-panel').or(page.getByTestId('room-ceiling')).first().waitFor();
-  await unfold(page);
+  await openAllDetails(page);
 }
 
 /** Types every bad value into every number field of the screen at `hash`; returns what happened. */
@@ -118,7 +99,7 @@ async function typeBadNumbers(page: Page, url: string, hash: string, screen: str
   await allSaved(page);
   await page.reload();
   await page.getByTestId('live-panel').or(page.getByTestId('room-ceiling')).first().waitFor();
-  await unfold(page);
+  await openAllDetails(page);
   const after = await values(page);
   const changed = after.filter((value, index) => value !== before[index]).length;
   expect(after, `${screen}: values after a reload`).toEqual(before);

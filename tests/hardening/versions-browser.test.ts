@@ -12,20 +12,12 @@
  * does not understand.
  */
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { expect, it } from 'vitest';
 import { schemaVersion } from '../../src/survey/db.ts';
-import { buildAndServe, hasChromium, openBrowser, type ServedApp } from '../ui/support/browser.ts';
+import { openBrowser } from '../ui/support/browser.ts';
+import { browserTests, serveAppForFile } from '../ui/support/suite.ts';
 
-const browserTests = describe.skipIf(!hasChromium());
-let app: ServedApp | undefined;
-
-beforeAll(async () => {
-  if (hasChromium()) app = await buildAndServe();
-}, 240_000);
-
-afterAll(async () => {
-  await app?.close();
-});
+const app = serveAppForFile(240_000);
 
 interface Dump {
   version: number;
@@ -63,7 +55,6 @@ async function dumpInPage(page: Page, name: string): Promise<Dump> {
 
 browserTests('a database from a newer Lampwalk, in Chromium', () => {
   it('the app says so, and leaves the database exactly as it was (version and records)', async () => {
-    if (!app) throw new Error('no build');
     const browser = await openBrowser();
     try {
       const { page } = browser;

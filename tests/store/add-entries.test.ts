@@ -4,8 +4,8 @@
  * and fields of invented test data (common practice, no published source).
  */
 import { describe, expect, it } from 'vitest';
-import { StoreError, startLampwalk, type NewEntry, type SurveyStore } from '../../src/survey/store.ts';
-import { countTransactions, fakeEnvironment, uniqueName } from './helpers.ts';
+import { startLampwalk, type NewEntry, type SurveyStore } from '../../src/survey/store.ts';
+import { countTransactions, failure, fakeEnvironment, uniqueName } from './helpers.ts';
 
 async function demoStore(): Promise<SurveyStore> {
   const { store } = await startLampwalk({ databaseName: uniqueName('add-entries'), environment: fakeEnvironment() });
@@ -22,15 +22,6 @@ function newEntry(description: string, count: number): NewEntry {
     control: 'none',
     notes: '',
   };
-}
-
-async function failure(promise: Promise<unknown>): Promise<StoreError> {
-  const error = await promise.then(
-    () => new Error('expected a StoreError, but the call succeeded'),
-    (caught: unknown) => caught,
-  );
-  if (!(error instanceof StoreError)) throw error;
-  return error;
 }
 
 describe('addEntries', () => {

@@ -10,18 +10,9 @@ import { main, type CliIo } from '../../src/cli/main.ts';
 import { calculateSurvey } from '../../src/calc/survey.ts';
 import { demoSurvey } from '../../src/survey/demo.ts';
 import { fileFormatVersion, type SurveyFile } from '../../src/survey/format.ts';
-import { StoreError, openSurveyStore, startLampwalk, type SurveyStore } from '../../src/survey/store.ts';
+import { openSurveyStore, startLampwalk, type SurveyStore } from '../../src/survey/store.ts';
 import { dumpDatabase } from './fixtures/harness.ts';
-import { bytesOf, countTransactions, fakeEnvironment, newPhoto, testClock, uniqueName } from './helpers.ts';
-
-async function failure(promise: Promise<unknown>): Promise<StoreError> {
-  const error = await promise.then(
-    () => new Error('expected a StoreError, but the call succeeded'),
-    (caught: unknown) => caught,
-  );
-  if (!(error instanceof StoreError)) throw error;
-  return error;
-}
+import { bytesOf, countTransactions, failure, fakeEnvironment, newPhoto, testClock, uniqueName } from './helpers.ts';
 
 /** A store with the demo, a second survey, photos of rooms and entries, and a product of the user's own. */
 async function fullStore(): Promise<SurveyStore> {

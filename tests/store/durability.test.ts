@@ -17,18 +17,9 @@ import {
 import { demoLandlordSurveys, demoPortfolio, demoSurvey } from '../../src/survey/demo.ts';
 import { exampleCatalog } from '../../src/survey/examples.ts';
 import { toStoreError } from '../../src/survey/store-error.ts';
-import { StoreError, startLampwalk } from '../../src/survey/store.ts';
+import { startLampwalk } from '../../src/survey/store.ts';
 import { dumpDatabase } from './fixtures/harness.ts';
-import { fakeEnvironment, fakeStorage, testClock, uniqueName } from './helpers.ts';
-
-async function failure(promise: Promise<unknown>): Promise<StoreError> {
-  const error = await promise.then(
-    () => new Error('expected a StoreError, but the call succeeded'),
-    (caught: unknown) => caught,
-  );
-  if (!(error instanceof StoreError)) throw error;
-  return error;
-}
+import { failure, fakeEnvironment, fakeStorage, testClock, uniqueName } from './helpers.ts';
 
 describe('persistent storage', () => {
   it('is asked on the first real save (not when seeding), once, and the answer is recorded', async () => {

@@ -1,13 +1,13 @@
 /**
  * Shared pieces of the store tests: a fresh database name per test, a fake
- * browser environment, a settable clock, small photos, and a counter of the
- * transactions a call opens.
+ * browser environment, a settable clock, small photos, a counter of the
+ * transactions a call opens, and the StoreError a call must fail with.
  */
 import 'fake-indexeddb/auto';
 import { vi } from 'vitest';
 import type { DurabilityEnvironment, MarkerPlace, StorageManagerLike, UsageMarker } from '../../src/survey/durability.ts';
 import type { NewPhoto } from '../../src/survey/photos.ts';
-import { openSurveyStore, type StoreOptions, type SurveyStore } from '../../src/survey/store.ts';
+import { StoreError, openSurveyStore, type StoreOptions, type SurveyStore } from '../../src/survey/store.ts';
 
 /** A database name no other test uses. */
 export function uniqueName(label = 'store'): string {
@@ -138,4 +138,18 @@ export async function countTransactions<T>(
   } finally {
     spy.mockRestore();
   }
+}
+
+/**
+ * The StoreError `promise` rejects with; throws when it resolves or rejects with anything else.
+ *
+ * @example (await failure(store.loadSurvey('nope'))).kind //=> 'not-found'
+ */
+export async function failure(promise: Promise<unknown>): Promise<StoreError> {
+  const error = await promise.then(
+    () => new Error('expected a StoreError, but the call succeeded'),
+    (caught: unknown) => caught,
+  );
+  if (!(error instanceof StoreError)) throw error;
+  return error;
 }

@@ -12,19 +12,10 @@ import { calculateLayout, calculatePortfolio } from '../../src/calc/portfolio.ts
 import { calculateSurvey } from '../../src/calc/survey.ts';
 import { demoFlatEntryIds, demoPortfolio, demoSurvey } from '../../src/survey/demo.ts';
 import type { RepeatedLayout } from '../../src/survey/model.ts';
-import { StoreError, changeFields, openSurveyStore, startLampwalk, type NewPortfolio, type PortfolioChange, type StoreChange, type SurveyStore } from '../../src/survey/store.ts';
+import { changeFields, openSurveyStore, startLampwalk, type NewPortfolio, type PortfolioChange, type StoreChange, type SurveyStore } from '../../src/survey/store.ts';
 import { PortfolioSession } from '../../src/ui/state/portfolioSession.ts';
 import { dumpDatabase, writeFixtureDatabase, type DatabaseFixture } from './fixtures/harness.ts';
-import { countTransactions, fakeEnvironment, testClock, uniqueName } from './helpers.ts';
-
-async function failure(promise: Promise<unknown>): Promise<StoreError> {
-  const error = await promise.then(
-    () => new Error('expected a StoreError, but the call succeeded'),
-    (caught: unknown) => caught,
-  );
-  if (!(error instanceof StoreError)) throw error;
-  return error;
-}
+import { countTransactions, failure, fakeEnvironment, testClock, uniqueName } from './helpers.ts';
 
 /** The demo plus a second survey ("Block B", one room, one entry), on a fresh database. */
 async function twoSurveys(clock = testClock('2027-02-01T08:00:00.000Z')): Promise<{ store: SurveyStore; second: string; secondEntry: string }> {

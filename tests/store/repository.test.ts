@@ -12,8 +12,8 @@ import { demoLandlordSurveys, demoPortfolio, demoSurvey } from '../../src/survey
 import { exampleCatalog } from '../../src/survey/examples.ts';
 import type { FixtureEntry, StoredEntry } from '../../src/survey/model.ts';
 import { assembleSurvey, ordersBetween, splitSurvey } from '../../src/survey/records.ts';
-import { StoreError, maxUnitsPerCopy, openSurveyStore, startLampwalk, type NewEntry, type SurveyStore } from '../../src/survey/store.ts';
-import { bytesOf, countTransactions, fakeEnvironment, newPhoto, testClock, uniqueName } from './helpers.ts';
+import { maxUnitsPerCopy, openSurveyStore, startLampwalk, type NewEntry, type SurveyStore } from '../../src/survey/store.ts';
+import { bytesOf, countTransactions, failure, fakeEnvironment, newPhoto, testClock, uniqueName } from './helpers.ts';
 
 /** A stamp as the store writes it: ISO 8601 in the device's time zone (date-fns formatISO). */
 function iso(utc: string): string {
@@ -24,15 +24,6 @@ function iso(utc: string): string {
 async function demoStore(clock = testClock(), seedDemoPortfolio = false): Promise<SurveyStore> {
   const { store } = await startLampwalk({ databaseName: uniqueName('repo'), environment: fakeEnvironment(), clock: clock.now, seedDemoPortfolio });
   return store;
-}
-
-async function failure(promise: Promise<unknown>): Promise<StoreError> {
-  const error = await promise.then(
-    () => new Error('expected a StoreError, but the call succeeded'),
-    (caught: unknown) => caught,
-  );
-  if (!(error instanceof StoreError)) throw error;
-  return error;
 }
 
 function newEntry(description: string, count = 4): NewEntry {

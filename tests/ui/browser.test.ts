@@ -12,36 +12,22 @@
  * (common practice, no published source: the screen must agree with the engine).
  */
 import { mkdir, mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
-import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { expect, it } from 'vitest';
 import { main } from '../../src/cli/main.ts';
 import type { SurveyResult } from '../../src/calc/survey.ts';
 import { demoLandlordSurveys } from '../../src/survey/demo.ts';
 import { parseSurveyFileText } from '../../src/survey/validate.ts';
 import { totalsText } from '../../src/ui/state/totals.ts';
 import { uiFigures } from '../../src/ui/state/format.ts';
-import { buildAndServe, hasChromium, openApp, openBrowser, projectRoot, type ServedApp } from './support/browser.ts';
+import { allSaved, axeViolations, openAllDetails, openApp, openBrowser, projectRoot, type AxeViolation } from './support/browser.ts';
 import { demoScreens } from './support/demo-screens.ts';
+import { browserTests, serveAppForFile } from './support/suite.ts';
 import { addCommonFixture, repeatLastFixture } from './support/taps.ts';
 
-const browserTests = describe.skipIf(!hasChromium());
-let app: ServedApp;
-
-beforeAll(async () => {
-  if (hasChromium()) app = await buildAndServe();
-}, 180_000);
-
-afterAll(async () => {
-  await app?.close();
-});
-
-/** Waits until every edit on screen has been written. */
-async function allSaved(page: Page): Promise<void> {
-  await page.waitForFunction(() => [...document.querySelectorAll('[data-testid="save-status"]')].every((el) => el.getAttribute('data-pending') === '0'));
-}
+const app = serveAppForFile();
 
 async function noNaN(page: Page): Promise<void> {
   expect(await page.locator('body').innerText()).not.toMatch(/NaN|Infinity|undefined/);
@@ -149,34 +135,15 @@ browserTests('the walk', () => {
   }, 180_000);
 });
 
-const axeSource = readFile(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
-
-interface AxeViolation {
-  id: string;
-  impact: string | null;
-  help: string;
-  nodes: { target: unknown[]; failureSummary?: string | undefined }[];
-}
-
 /** Opens every collapsed part of the screen (and the lists behind a tap) so axe sees all of it. */
 async function revealAll(page: Page, screen: string): Promise<void> {
-  await page.evaluate(() => document.querySelectorAll('details').forEach((details) => (details.open = true)));
+  await openAllDetails(page);
   if (screen === 'room') await page.getByTestId('add-fixture').click();
   if (screen === 'entry') {
     const showAll = page.getByRole('button', { name: /Show all \d+ products/ });
     if (await showAll.count()) await showAll.click();
   }
   if (screen === 'survey') await page.getByTestId('add-room').click();
-}
-
-async function axeViolations(page: Page): Promise<AxeViolation[]> {
-  // Evaluated rather than added as an inline <script>, which the page's Content-Security-Policy refuses.
-  await page.evaluate(await axeSource);
-  return page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (context: Document, options: object) => Promise<{ violations: AxeViolation[] }> } }).axe;
-    const report = await axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'] }, resultTypes: ['violations'] });
-    return report.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.slice(0, 5).map((n) => ({ target: n.target, failureSummary: n.failureSummary })) }));
-  });
 }
 
 browserTests('accessibility', () => {

@@ -12,45 +12,19 @@
  * 3. emptying either field removes it from the saved records (checked in the
  *    backup the app exports).
  */
-import { mkdtemp, readFile, rm } from 'node:fs/promises';
+import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { expect, it } from 'vitest';
 import { cctBandKelvin } from '../../src/calc/choice.ts';
-import type { SurveyFile } from '../../src/survey/format.ts';
-import { parseSurveyFileText } from '../../src/survey/validate.ts';
-import { buildAndServe, hasChromium, openApp, openBrowser, type ServedApp } from './support/browser.ts';
+import { allSaved, backupEverything, openApp, openBrowser } from './support/browser.ts';
+import { browserTests, serveAppForFile } from './support/suite.ts';
 
-const browserTests = describe.skipIf(!hasChromium());
-let app: ServedApp;
-
-beforeAll(async () => {
-  if (hasChromium()) app = await buildAndServe();
-}, 180_000);
-
-afterAll(async () => {
-  await app?.close();
-});
+const app = serveAppForFile();
 
 const demo = '#/s/demo-tallowmere';
 const troffers = 'demo-shop-troffers';
-
-async function allSaved(page: Page): Promise<void> {
-  await page.waitForFunction(() => [...document.querySelectorAll('[data-testid="save-status"]')].every((el) => el.getAttribute('data-pending') === '0'));
-}
-
-/** Exports "back up everything" from the surveys screen and parses it. */
-async function backup(page: Page, url: string, folder: string): Promise<SurveyFile> {
-  await page.goto(`${url}#/`);
-  await page.getByTestId('backup-everything').waitFor();
-  const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('backup-everything').click()]);
-  const path = join(folder, 'backup.json');
-  await download.saveAs(path);
-  const parsed = parseSurveyFileText(await readFile(path, 'utf8'));
-  if (!parsed.ok) throw new Error(`the exported backup is not a valid survey file: ${JSON.stringify(parsed.problems)}`);
-  return parsed.file;
-}
 
 /** The reasons shown for every product under the troffer entry's "Why not the others?". */
 async function trofferReasons(page: Page, url: string): Promise<string[]> {
@@ -123,7 +97,7 @@ browserTests('fields for automatic product choice', () => {
       await page.getByTestId('product-volts-max').fill('');
       expect(await page.getByTestId('product-volts-max').getAttribute('aria-invalid')).toBe('false');
       await allSaved(page);
-      const file = await backup(page, app.url, folder);
+      const file = await backupEverything(page, app.url, folder);
       const room = file.surveys.find((survey) => survey.id === 'demo-tallowmere')?.rooms.find((item) => item.id === 'demo-shop');
       const tube = file.catalog.find((product) => product.id === 'example-t8-typeb');
       if (!room || !tube) throw new Error('the backup lacks the demo shop floor or the Type B tube');

@@ -15,68 +15,21 @@
  * 5. axe-core finds no WCAG 2.2 A/AA violation on the new screens in the
  *    light, dark and sunlight themes, and none scrolls sideways at 320 px.
  */
-import { mkdtemp, readFile, rm } from 'node:fs/promises';
-import { createRequire } from 'node:module';
+import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { expect, it } from 'vitest';
 import { chooseProducts } from '../../src/calc/choice.ts';
 import { calculatePortfolio } from '../../src/calc/portfolio.ts';
 import { demoSurvey } from '../../src/survey/demo.ts';
-import type { SurveyFile } from '../../src/survey/format.ts';
-import { parseSurveyFileText } from '../../src/survey/validate.ts';
 import { defaultPreferences } from '../../src/ui/state/preferences.ts';
 import { portfolioFigures, portfolioTotalsText } from '../../src/ui/state/portfolioText.ts';
-import { buildAndServe, hasChromium, openApp, openBrowser, type ServedApp } from './support/browser.ts';
+import { allSaved, axeViolations, backupEverything, openAllDetails, openApp, openBrowser, type AxeViolation } from './support/browser.ts';
+import { browserTests, serveAppForFile } from './support/suite.ts';
 
-const browserTests = describe.skipIf(!hasChromium());
-let app: ServedApp;
-
-beforeAll(async () => {
-  if (hasChromium()) app = await buildAndServe();
-}, 180_000);
-
-afterAll(async () => {
-  await app?.close();
-});
+const app = serveAppForFile();
 
 const demoId = 'demo-tallowmere';
-
-async function allSaved(page: Page): Promise<void> {
-  await page.waitForFunction(() => [...document.querySelectorAll('[data-testid="save-status"]')].every((el) => el.getAttribute('data-pending') === '0'));
-}
-
-/** Exports "back up everything" from the surveys screen and parses it. */
-async function backup(page: Page, url: string, folder: string, name: string): Promise<SurveyFile> {
-  await page.goto(`${url}#/`);
-  await page.getByTestId('backup-everything').waitFor();
-  const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('backup-everything').click()]);
-  const path = join(folder, name);
-  await download.saveAs(path);
-  const parsed = parseSurveyFileText(await readFile(path, 'utf8'));
-  if (!parsed.ok) throw new Error(`the exported backup is not a valid survey file: ${JSON.stringify(parsed.problems)}`);
-  return parsed.file;
-}
-
-const axeSource = readFile(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
-
-interface AxeViolation {
-  id: string;
-  help: string;
-  targets: unknown[];
-}
-
-async function axeViolations(page: Page): Promise<AxeViolation[]> {
-  await page.evaluate(() => document.querySelectorAll('details').forEach((details) => (details.open = true)));
-  // The app's content security policy refuses inline scripts; evaluating through the DevTools protocol is not subject to it.
-  if (!(await page.evaluate(() => 'axe' in window))) await page.evaluate(await axeSource);
-  return page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (context: Document, options: object) => Promise<{ violations: { id: string; help: string; nodes: { target: unknown[] }[] }[] }> } }).axe;
-    const report = await axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'] }, resultTypes: ['violations'] });
-    return report.violations.map((v) => ({ id: v.id, help: v.help, targets: v.nodes.slice(0, 5).map((n) => n.target) }));
-  });
-}
 
 browserTests('bulk-swap planning', () => {
   it('layout, portfolio roll-up equal to the engine, a phased plan with reasons, suggestions accepted only on request', async () => {
@@ -84,6 +37,7 @@ browserTests('bulk-swap planning', () => {
     const folder = await mkdtemp(join(tmpdir(), 'lampwalk-planning-'));
     const violations: Record<string, AxeViolation[]> = {};
     const checkAxe = async (name: string) => {
+      await openAllDetails(browser.page);
       const found = await axeViolations(browser.page);
       if (found.length > 0) violations[name] = found;
     };
@@ -168,7 +122,7 @@ browserTests('bulk-swap planning', () => {
       await checkAxe('suggestions');
 
       // The roll-up on screen equals calculatePortfolio on the exported backup; nothing was changed by looking.
-      const before = await backup(page, app.url, folder, 'before.json');
+      const before = await backupEverything(page, app.url, folder, 'before.json');
       // Found by name: the demo data may hold portfolios of its own.
       const portfolio = before.portfolios.find((item) => item.name === 'North estate (test)');
       if (!portfolio) throw new Error('the backup holds no portfolio');
@@ -210,7 +164,7 @@ browserTests('bulk-swap planning', () => {
       await expect.poll(() => page.locator('[data-testid="suggestion"][data-changed="true"]').count()).toBe(0);
       await allSaved(page);
 
-      const after = await backup(page, app.url, folder, 'after.json');
+      const after = await backupEverything(page, app.url, folder, 'after.json');
       expect(after.portfolios.find((item) => item.name === 'North estate (test)')?.plan).toEqual({ budgetPerYear: budget, years: 2 });
       const demoAfter = after.surveys.find((survey) => survey.id === demoId);
       if (!demoAfter) throw new Error('the second backup holds no demo survey');

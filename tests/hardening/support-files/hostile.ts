@@ -12,6 +12,7 @@
  * placeholder strings and swapped in the JSON text.
  */
 import fc from 'fast-check';
+import { afterAll, beforeAll, expect } from 'vitest';
 import { demoSurvey } from '../../../src/survey/demo.ts';
 import { exampleCatalog } from '../../../src/survey/examples.ts';
 import { makeSurveyFile, type SurveyFile } from '../../../src/survey/format.ts';
@@ -549,6 +550,25 @@ export function nonFiniteNumbers(value: unknown, path = 'result', out: string[] 
   return out;
 }
 
+/**
+ * Snapshots the built-in prototypes before the file's tests and checks after
+ * all of them that nothing was planted there (and that a plain object
+ * inherits nothing new).
+ *
+ * @example checkPrototypesAfterAll() //=> the file fails if any run polluted a prototype
+ */
+export function checkPrototypesAfterAll(): void {
+  let prototypesBefore = '';
+  beforeAll(() => {
+    prototypesBefore = prototypeSnapshot();
+  });
+  afterAll(() => {
+    // After every run: nothing was planted on the built-in prototypes.
+    expect(prototypeSnapshot()).toBe(prototypesBefore);
+    expect(plainObjectPolluted()).toBe(false);
+  });
+}
+
 /** Counts kept by a fuzz run and printed at its end. */
 export class Tally {
   private readonly counts = new Map<string, number>();
@@ -565,5 +585,19 @@ export class Tally {
 
   get(label: string): number {
     return this.counts.get(label) ?? 0;
+  }
+
+  /** Prints the kept samples, one label a line, under the run's summary. */
+  printSamples(): void {
+    for (const [label, samples] of this.samples) console.log(`  ${label}: ${samples.join('\n    ')}`);
+  }
+
+  /**
+   * Expects a count of 0 for each label (each checked on its own, named in the failure).
+   *
+   * @example tally.expectNone(['crashes', 'unstable']) //=> passes when neither was ever added
+   */
+  expectNone(labels: readonly string[]): void {
+    for (const label of labels) expect(this.get(label), label).toBe(0);
   }
 }

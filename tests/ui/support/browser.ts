@@ -3,50 +3,26 @@
  * production app with Vite into a temporary folder, serves it on 127.0.0.1
  * (a free port) and drives Debian's Chromium through playwright-core with a
  * fresh profile. Never downloads a browser. Service workers are blocked so
- * every load comes from the build just made.
+ * every load comes from the build just made. Also the page helpers the
+ * screen tests share: waiting for saves, the "back up everything" export and
+ * the axe-core accessibility check.
+ *
+ * The Chromium path and flags, the project folder and the static server are
+ * those of tests/offline/support.ts.
  *
  * Set LAMPWALK_CHROMIUM to use a Chromium other than /usr/bin/chromium.
  */
-import { existsSync } from 'node:fs';
 import { mkdtemp, readFile, rm } from 'node:fs/promises';
-import { createServer, type Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
+import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
-import { extname, join, normalize, sep } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { build } from 'vite';
+import type { SurveyFile } from '../../../src/survey/format.ts';
+import { parseSurveyFileText } from '../../../src/survey/validate.ts';
+import { chromiumArgs, chromiumPath, hasChromium, projectRoot, serveFolder } from '../../offline/support.ts';
 
-export const chromiumPath = process.env.LAMPWALK_CHROMIUM ?? '/usr/bin/chromium';
-const chromiumArgs = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-];
-
-/** The project folder (two levels above this file's folder). */
-export const projectRoot = fileURLToPath(new URL('../../../', import.meta.url));
-
-/** True when the Chromium these tests drive is installed. */
-export function hasChromium(): boolean {
-  return existsSync(chromiumPath);
-}
-
-const contentTypes: Record<string, string> = {
-  '.html': 'text/html; charset=utf-8',
-  '.js': 'text/javascript; charset=utf-8',
-  '.css': 'text/css; charset=utf-8',
-  '.json': 'application/json',
-  '.webmanifest': 'application/manifest+json',
-  '.svg': 'image/svg+xml',
-  '.png': 'image/png',
-  '.map': 'application/json',
-};
+export { chromiumPath, hasChromium, projectRoot };
 
 /** A production build of the app, served. */
 export interface ServedApp {
@@ -64,25 +40,12 @@ export async function buildAndServe(): Promise<ServedApp> {
     logLevel: 'error',
     build: { outDir, emptyOutDir: true },
   });
-  const server: Server = createServer((req, res) => {
-    const path = decodeURIComponent(new URL(req.url ?? '/', 'http://127.0.0.1').pathname);
-    const file = normalize(join(outDir, path === '/' ? 'index.html' : path));
-    if (!file.startsWith(outDir + sep)) {
-      res.writeHead(403).end();
-      return;
-    }
-    readFile(file).then(
-      (body) => res.writeHead(200, { 'content-type': contentTypes[extname(file)] ?? 'application/octet-stream', 'cache-control': 'no-store' }).end(body),
-      () => res.writeHead(404).end(),
-    );
-  });
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  const { port } = server.address() as AddressInfo;
+  const server = await serveFolder(outDir);
   return {
-    url: `http://127.0.0.1:${port}/`,
+    url: server.url,
     outDir,
     close: async () => {
-      await new Promise<void>((resolve) => server.close(() => resolve()));
+      await server.close();
       await rm(outDir, { recursive: true, force: true });
     },
   };
@@ -129,4 +92,57 @@ export async function openBrowser(viewport = { width: 390, height: 844 }, colorS
 export async function openApp(page: Page, url: string, hash = ''): Promise<void> {
   await page.goto(`${url}${hash}`);
   await page.locator('h1').first().waitFor();
+}
+
+/** Opens every folded section (`<details>`) of the page. */
+export async function openAllDetails(page: Page): Promise<void> {
+  await page.evaluate(() => document.querySelectorAll('details').forEach((details) => (details.open = true)));
+}
+
+/** Waits until every edit on the page has been written. */
+export async function allSaved(page: Page): Promise<void> {
+  await page.waitForFunction(() => [...document.querySelectorAll('[data-testid="save-status"]')].every((el) => el.getAttribute('data-pending') === '0'));
+}
+
+/**
+ * Exports "back up everything" from the surveys screen into `folder/name` and parses it.
+ *
+ * @example const file = await backupEverything(page, app.url, folder) //=> the survey file, every survey and portfolio in it
+ */
+export async function backupEverything(page: Page, url: string, folder: string, name = 'backup.json'): Promise<SurveyFile> {
+  await page.goto(`${url}#/`);
+  await page.getByTestId('backup-everything').waitFor();
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('backup-everything').click()]);
+  const path = join(folder, name);
+  await download.saveAs(path);
+  const parsed = parseSurveyFileText(await readFile(path, 'utf8'));
+  if (!parsed.ok) throw new Error(`the exported backup is not a valid survey file: ${JSON.stringify(parsed.problems)}`);
+  return parsed.file;
+}
+
+/** One WCAG rule axe-core found broken, with up to five of the elements that break it. */
+export interface AxeViolation {
+  id: string;
+  impact: string | null;
+  help: string;
+  nodes: { target: unknown[]; failureSummary?: string | undefined }[];
+}
+
+let axeSource: Promise<string> | undefined;
+
+/**
+ * Runs axe-core on the page as it stands for the WCAG 2.2 A and AA rules
+ * (loading axe once per page) and returns what it finds broken.
+ *
+ * @example await axeViolations(page) //=> [] on a screen with no WCAG 2.2 A/AA violation
+ */
+export async function axeViolations(page: Page): Promise<AxeViolation[]> {
+  axeSource ??= readFile(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
+  // Evaluated through the DevTools protocol rather than added as an inline <script>, which the page's Content-Security-Policy refuses.
+  if (!(await page.evaluate(() => 'axe' in window))) await page.evaluate(await axeSource);
+  return page.evaluate(async () => {
+    const axe = (window as unknown as { axe: { run: (context: Document, options: object) => Promise<{ violations: AxeViolation[] }> } }).axe;
+    const report = await axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'] }, resultTypes: ['violations'] });
+    return report.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.slice(0, 5).map((n) => ({ target: n.target, failureSummary: n.failureSummary })) }));
+  });
 }
