@@ -6,6 +6,7 @@
  */
 import { useState } from 'preact/hooks';
 import type { CatalogProduct, Distribution, ProductForm } from '../../survey/model.ts';
+import { AddForm } from '../components/AddForm.tsx';
 import { NumberField, SelectField, TextField } from '../components/fields.tsx';
 import { Section } from '../components/Section.tsx';
 import { Icon } from '../components/Icon.tsx';
@@ -13,7 +14,6 @@ import { Screen } from '../components/Layout.tsx';
 import { inputVoltsText } from '../components/ProductFields.tsx';
 import { go, href } from '../router.ts';
 import { useApp } from '../state/context.ts';
-import { messageOf } from '../state/errors.ts';
 import { rules } from '../state/fields.ts';
 import { distributionLabels, formLabels, optionsOf } from '../state/labels.ts';
 import { useCatalog } from '../state/useSession.ts';
@@ -42,9 +42,8 @@ function ProductRow(props: { product: CatalogProduct; locale: string }) {
 }
 
 function NewProduct(props: { onAdded: (product: CatalogProduct) => void }) {
-  const { store, preferences, notify } = useApp();
+  const { store, preferences } = useApp();
   const locale = preferences.locale;
-  const [open, setOpen] = useState(false);
   const [name, setName] = useState('');
   const [form, setForm] = useState<ProductForm>('screw-lamp');
   const [distribution, setDistribution] = useState<Distribution>('diffuse');
@@ -55,84 +54,59 @@ function NewProduct(props: { onAdded: (product: CatalogProduct) => void }) {
   const [pf, setPf] = useState<number | undefined>(undefined);
   const [life, setLife] = useState<number | undefined>(undefined);
   const [price, setPrice] = useState<number | undefined>(undefined);
-  const [busy, setBusy] = useState(false);
   const ready = name.trim() !== '' && [watts, lumens, cct, cri, pf, life, price].every((value) => value !== undefined);
 
   const add = async () => {
     if (!ready || watts === undefined || lumens === undefined || cct === undefined || cri === undefined || pf === undefined || life === undefined || price === undefined) return;
-    setBusy(true);
-    try {
-      const product = await store.addProduct({
-        name: name.trim(),
-        sku: '',
-        form,
-        tubeType: 'not-a-tube',
-        unitsPerFixture: 1,
-        wattsPerUnit: watts,
-        lumensPerUnit: lumens,
-        cctKelvin: cct,
-        cri,
-        powerFactor: pf,
-        dimmable: false,
-        enclosedRated: false,
-        moistureRating: 'dry',
-        insulationContactRated: false,
-        emergencyListed: false,
-        ratedLifeHours: life,
-        distribution,
-        unitCost: price,
-        installMinutesPerFixture: 0,
-        rebatePerFixture: 0,
-        example: false,
-        retired: false,
-      });
-      props.onAdded(product);
-    } catch (error) {
-      notify({ tone: 'error', text: messageOf(error) });
-    } finally {
-      setBusy(false);
-    }
+    const product = await store.addProduct({
+      name: name.trim(),
+      sku: '',
+      form,
+      tubeType: 'not-a-tube',
+      unitsPerFixture: 1,
+      wattsPerUnit: watts,
+      lumensPerUnit: lumens,
+      cctKelvin: cct,
+      cri,
+      powerFactor: pf,
+      dimmable: false,
+      enclosedRated: false,
+      moistureRating: 'dry',
+      insulationContactRated: false,
+      emergencyListed: false,
+      ratedLifeHours: life,
+      distribution,
+      unitCost: price,
+      installMinutesPerFixture: 0,
+      rebatePerFixture: 0,
+      example: false,
+      retired: false,
+    });
+    props.onAdded(product);
   };
 
-  if (!open) {
-    return (
-      <button type="button" class="button button--primary spaced" onClick={() => setOpen(true)} data-testid="new-product">
-        <Icon name="plus" />
-        Add a product
-      </button>
-    );
-  }
   return (
-    <form
-      class="subpanel"
-      aria-label="New product"
-      onSubmit={(event) => {
-        event.preventDefault();
-        void add();
-      }}
+    <AddForm
+      openLabel="Add a product"
+      openTestId="new-product"
+      openClass="spaced"
+      formLabel="New product"
+      submitLabel="Add to the catalog"
+      ready={ready}
+      onAdd={add}
+      lead={<p class="quiet">The figures from the data sheet. Ratings (dimmable, enclosed, damp…) and prices are set on the next page.</p>}
     >
-      <p class="quiet">The figures from the data sheet. Ratings (dimmable, enclosed, damp…) and prices are set on the next page.</p>
-      <div class="grid-fields">
-        <TextField label="Product name" value={name} onChange={setName} class="field--wide" />
-        <SelectField label="Form" value={form} options={optionsOf(formLabels)} onChange={setForm} />
-        <SelectField label="Light distribution" value={distribution} options={optionsOf(distributionLabels)} onChange={setDistribution} />
-        <NumberField label="Watts" unit="W" value={watts} rule={rules.ratedWatts} locale={locale} onChange={setWatts} />
-        <NumberField label="Lumens" unit="lm" value={lumens} rule={rules.lumens} locale={locale} onChange={setLumens} />
-        <NumberField label="CCT" unit="K" value={cct} rule={rules.cct} locale={locale} onChange={setCct} />
-        <NumberField label="CRI" value={cri} rule={rules.cri} locale={locale} onChange={setCri} />
-        <NumberField label="Power factor" value={pf} rule={rules.powerFactor} locale={locale} onChange={setPf} />
-        <NumberField label="Rated life" unit="h" value={life} rule={rules.lifeHours} locale={locale} onChange={setLife} />
-        <NumberField label="Price each" unit={preferences.currency} value={price} rule={rules.money} locale={locale} onChange={setPrice} />
-      </div>
-      <div class="actions">
-        <button type="submit" class="button button--primary" disabled={!ready || busy}>
-          Add to the catalog
-        </button>
-        <button type="button" class="button button--quiet" onClick={() => setOpen(false)}>
-          Cancel
-        </button>
-      </div>
-    </form>
+      <TextField label="Product name" value={name} onChange={setName} class="field--wide" />
+      <SelectField label="Form" value={form} options={optionsOf(formLabels)} onChange={setForm} />
+      <SelectField label="Light distribution" value={distribution} options={optionsOf(distributionLabels)} onChange={setDistribution} />
+      <NumberField label="Watts" unit="W" value={watts} rule={rules.ratedWatts} locale={locale} onChange={setWatts} />
+      <NumberField label="Lumens" unit="lm" value={lumens} rule={rules.lumens} locale={locale} onChange={setLumens} />
+      <NumberField label="CCT" unit="K" value={cct} rule={rules.cct} locale={locale} onChange={setCct} />
+      <NumberField label="CRI" value={cri} rule={rules.cri} locale={locale} onChange={setCri} />
+      <NumberField label="Power factor" value={pf} rule={rules.powerFactor} locale={locale} onChange={setPf} />
+      <NumberField label="Rated life" unit="h" value={life} rule={rules.lifeHours} locale={locale} onChange={setLife} />
+      <NumberField label="Price each" unit={preferences.currency} value={price} rule={rules.money} locale={locale} onChange={setPrice} />
+    </AddForm>
   );
 }
 
