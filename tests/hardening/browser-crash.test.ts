@@ -29,6 +29,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parseSurveyFileText } from '../../src/survey/validate.ts';
 import type { OfflineHandle } from '../../src/ui/offline/mount.tsx';
 import { hasChromium, launch } from '../offline/support.ts';
+import { seededRandom } from '../../bench/synthetic.ts';
 import { buildAndServeProduction, killBrowser, type BuiltApp } from './support/browser.ts';
 
 const trials = 20;
@@ -47,18 +48,6 @@ const notesIndex = (t: number, notes: string): number | null => {
   const match = new RegExp(`^trial ${t} edit (\\d+)$`).exec(notes);
   return match ? Number(match[1]) : null;
 };
-
-/** A small seeded generator (mulberry32), so a failing run can be repeated with its seed. */
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 type WithHandle = Window & { lampwalkOffline: OfflineHandle };
 
@@ -84,7 +73,7 @@ describe.skipIf(!hasChromium() || process.platform !== 'linux')('crash durabilit
 
   it(`keeps every acknowledged edit through ${trials} hard kills mid-burst`, async () => {
     const seed = Number(process.env.LAMPWALK_CRASH_SEED ?? Date.now() % 1_000_000);
-    const next = random(seed);
+    const next = seededRandom(seed);
     const profile = join(app.work, 'profile');
     /** The last acknowledged values of the previous trial (null: nothing acknowledged yet). */
     let acked: { trial: number; count: number; notesIndex: number } | null = null;
